@@ -1,0 +1,97 @@
+using System.CommandLine;
+using System.Globalization;
+using RankFreq.Counting;
+using RankFreq.Sources;
+using RankFreq.Storage;
+using RankFreq.Tokenization;
+
+namespace RankFreq.Cli;
+
+/// <summary>Parses arguments, builds settings, calls one library entry point and maps the outcome to an exit code.</summary>
+public static class CliApp
+{
+    /// <summary>Exit codes: 0 ok, 1 error, 2 usage.</summary>
+    public const int Ok = 0, Error = 1, Usage = 2;
+
+    /// <summary>Runs the command line; output goes to the given writers.</summary>
+    public static async Task<int> RunAsync(string[] args, TextWriter stdout, TextWriter stderr)
+    {
+        var root = Build(stdout, stderr);
+        var parsed = root.Parse(args);
+        if (parsed.Errors.Count > 0)
+        {
+            foreach (var e in parsed.Errors) stderr.WriteLine($"rankfreq: {e.Message}");
+            stderr.WriteLine("Try 'rankfreq --help'.");
+            return Usage;
+        }
+        try
+        {
+            return await parsed.InvokeAsync(new InvocationConfiguration { Output = stdout, Error = stderr });
+        }
+        catch (IOException e) when (IsBrokenPipe(e)) { return Ok; }
+    }
+
+    internal static bool IsBrokenPipe(IOException e) => e.Message.Contains("Broken pipe", StringComparison.OrdinalIgnoreCase) || e.HResult == 32;
+
+    private static RootCommand Build(TextWriter stdout, TextWriter stderr)
+    {
+        var root = new RootCommand("RankFreq: rank-frequency (Zipf-type) analysis of text collections — exact counts, tail fits that hold up, reports.");
+        root.Subcommands.Add(CountVerb.Build(stdout, stderr));
+        root.Subcommands.Add(MergeVerb.Build(stdout, stderr));
+        // VERB:fit
+        // VERB:profile
+        var tok = new Command("tokenizers", "List the tokenizer specs available.");
+        tok.SetAction(_ =>
+        {
+            foreach (var (spec, desc) in TokenizerFactory.Available) stdout.WriteLine($"{spec,-28} {desc}");
+            return Ok;
+        });
+        root.Subcommands.Add(tok);
+        return root;
+    }
+
+    /// <summary>Maps library exceptions to a one-line message and exit code 1.</summary>
+    internal static int Fail(TextWriter stderr, Exception e)
+    {
+        switch (e)
+        {
+            case SourceException or TokenizerException or CountingException or StorageException:
+                stderr.WriteLine($"rankfreq: error: {e.Message}");
+                return Error;
+            case OperationCanceledException:
+                stderr.WriteLine("rankfreq: cancelled; no output written");
+                return Error;
+            case UsageException:
+                stderr.WriteLine($"rankfreq: {e.Message}");
+                return Usage;
+            case IOException io when IsBrokenPipe(io):
+                return Ok;
+            default:
+                stderr.WriteLine($"rankfreq: internal error: {e.GetType().Name}: {e.Message}");
+                return Error;
+        }
+    }
+
+    /// <summary>Parses sizes like 512M, 2G, 64K or plain bytes.</summary>
+    internal static long ParseSize(string? s, string option)
+    {
+        if (string.IsNullOrWhiteSpace(s)) return 0;
+        s = s.Trim();
+        long mult = 1;
+        char last = char.ToUpperInvariant(s[^1]);
+        if (last == 'B' && s.Length > 1) { s = s[..^1]; last = char.ToUpperInvariant(s[^1]); }
+        switch (last)
+        {
+            case 'K': mult = 1L << 10; s = s[..^1]; break;
+            case 'M': mult = 1L << 20; s = s[..^1]; break;
+            case 'G': mult = 1L << 30; s = s[..^1]; break;
+            case 'T': mult = 1L << 40; s = s[..^1]; break;
+        }
+        if (!double.TryParse(s, NumberStyles.Float, CultureInfo.InvariantCulture, out var v) || v <= 0)
+            throw new UsageException($"{option}: '{s}' is not a size (examples: 512M, 2G)");
+        return (long)(v * mult);
+    }
+}
+
+/// <summary>A usage error found after parsing (exit code 2).</summary>
+internal sealed class UsageException(string message) : Exception(message);

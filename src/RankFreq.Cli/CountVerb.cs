@@ -1,0 +1,79 @@
+using System.CommandLine;
+using System.Text.Json;
+using RankFreq.Counting;
+using RankFreq.Storage;
+
+namespace RankFreq.Cli;
+
+internal static class CountVerb
+{
+    public static Command Build(TextWriter stdout, TextWriter stderr)
+    {
+        var common = new CorpusOptions();
+        var output = new Option<string>("--out", "-o") { Description = "Count table to write (.parquet)", Required = true };
+        var cmd = new Command("count", "Count tokens exactly and write the rank table as Parquet.");
+        common.AddTo(cmd);
+        cmd.Options.Add(output);
+        cmd.SetAction(async (pr, ct) =>
+        {
+            try
+            {
+                var settings = common.Settings(pr);
+                bool quiet = pr.GetValue(common.Quiet), json = pr.GetValue(common.Json);
+                var progress = new ConsoleProgress(stderr, quiet);
+                using var result = await Task.Run(() => CountEngine.Count(pr.GetValue(common.Inputs)!, settings, progress, ct), ct);
+                progress.Done();
+                var s = result.Summary;
+                await CountTableFile.WriteAsync(pr.GetValue(output)!, result.Rows, result.HasTokenIds, Metadata(s, pr.GetValue(common.RedactBelow)), ct);
+                foreach (var sk in s.SkippedFiles) stderr.WriteLine($"rankfreq: warning: skipped {sk.Path}: {sk.Reason}");
+                if (json) stdout.WriteLine(JsonSerializer.Serialize(SummaryJson(s), JsonOut.Options));
+                else if (!quiet) WriteSummary(stdout, s, pr.GetValue(output)!);
+                return CliApp.Ok;
+            }
+            catch (Exception e) { return CliApp.Fail(stderr, e); }
+        });
+        return cmd;
+    }
+
+    internal static CountTableMetadata Metadata(CountSummary s, long redactBelow) =>
+        new(s.TokenizerSpec, s.Normalization, s.CaseRule, s.Tokens, s.Types, s.Inputs, CountTableMetadata.CurrentVersion, DateTime.UtcNow, redactBelow);
+
+    internal static Dictionary<string, object?> SummaryJson(CountSummary s) => new()
+    {
+        ["tokenizer"] = s.TokenizerSpec,
+        ["tokens"] = s.Tokens,
+        ["types"] = s.Types,
+        ["bytes"] = s.StoredBytes,
+        ["text_bytes"] = s.TextBytes,
+        ["replaced_bytes"] = s.ReplacedBytes,
+        ["records"] = s.Records,
+        ["malformed_records"] = s.MalformedRecords,
+        ["missing_field"] = s.MissingField,
+        ["skipped_files"] = s.SkippedFiles.Select(f => new Dictionary<string, string> { ["path"] = f.Path, ["reason"] = f.Reason }).ToList(),
+        ["files"] = s.Inputs.Count,
+        ["threads"] = s.Threads,
+        ["spilled_runs"] = s.SpilledRuns,
+        ["seconds"] = Math.Round(s.Seconds, 3),
+    };
+
+    internal static void WriteSummary(TextWriter o, CountSummary s, string path)
+    {
+        o.WriteLine($"  tokens   {s.Tokens,16:N0}");
+        o.WriteLine($"  types    {s.Types,16:N0}");
+        o.WriteLine($"  read     {Human.Bytes(s.StoredBytes),16}  from {s.Inputs.Count} file(s) in {s.Seconds:F2} s on {s.Threads} thread(s)");
+        if (s.ReplacedBytes > 0) o.WriteLine($"  invalid UTF-8 bytes replaced: {s.ReplacedBytes:N0}");
+        if (s.MalformedRecords > 0) o.WriteLine($"  malformed records skipped:    {s.MalformedRecords:N0}");
+        if (s.MissingField > 0) o.WriteLine($"  records without the text field: {s.MissingField:N0}");
+        if (s.SpilledRuns > 0) o.WriteLine($"  spilled to disk in {s.SpilledRuns} run(s)");
+        o.WriteLine($"  table    {path}");
+    }
+}
+
+internal static class JsonOut
+{
+    public static readonly JsonSerializerOptions Options = new()
+    {
+        WriteIndented = true,
+        NumberHandling = System.Text.Json.Serialization.JsonNumberHandling.AllowNamedFloatingPointLiterals,
+    };
+}

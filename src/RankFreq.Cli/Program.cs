@@ -1,0 +1,3 @@
+using RankFreq.Cli;
+
+return await CliApp.RunAsync(args, Console.Out, Console.Error);

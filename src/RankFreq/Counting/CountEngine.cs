@@ -1,0 +1,211 @@
+using System.Diagnostics;
+using System.Text;
+using RankFreq.Sources;
+using RankFreq.Tokenization;
+
+namespace RankFreq.Counting;
+
+/// <summary>
+/// Streams inputs through a tokenizer into exact counts: one table per worker thread (parallel over files and over
+/// newline-aligned ranges of large plain files), spilled as sorted runs to a temporary folder when the memory budget
+/// is reached, merged exactly at the end.
+/// </summary>
+public static class CountEngine
+{
+    /// <summary>Counts <paramref name="inputs"/> (files, folders, "-"). Throws <see cref="SourceException"/>,
+    /// <see cref="TokenizerException"/> or <see cref="CountingException"/> with a message naming the cause.</summary>
+    public static CountResult Count(IReadOnlyList<string> inputs, CountSettings settings, IProgress<CountProgress>? progress = null, CancellationToken ct = default)
+    {
+        var sw = Stopwatch.StartNew();
+        var tokenizer = TokenizerFactory.Create(settings.Tokenizer);
+        var source = settings.Source ?? new SourceOptions();
+        var (files, skipped) = InputPlanner.Expand(inputs, source);
+        if (settings.ShardCount > 0)
+        {
+            if (settings.ShardIndex < 1 || settings.ShardIndex > settings.ShardCount)
+                throw new CountingException($"shard {settings.ShardIndex}/{settings.ShardCount}: K must be between 1 and N");
+            files = files.Where((_, i) => i % settings.ShardCount == settings.ShardIndex - 1).ToList();
+        }
+        int threads = settings.EffectiveThreads;
+        var units = InputPlanner.Plan(files, tokenizer.SplitsAtNewlines, threads);
+        long totalBytes = files.Sum(f => f.Length);
+        var unitTokens = new long[units.Count];
+        var spill = new SpillSet(settings.TempDirectory);
+        long budget = settings.EffectiveMemory;
+        var workers = new List<Worker>();
+        long done = 0;
+        using var timer = progress is null ? null : new Timer(_ =>
+            progress.Report(new CountProgress(Interlocked.Read(ref done), totalBytes, workers.ToArray().Sum(w => w.Tokens), sw.Elapsed)), null, 500, 500);
+        bool handedOver = false;
+        try
+        {
+            var order = units.OrderByDescending(u => u.End >= 0 ? u.End - u.Start : u.File.Length).ToList();
+            Parallel.ForEach(order,
+                new ParallelOptions { MaxDegreeOfParallelism = threads, CancellationToken = ct },
+                () =>
+                {
+                    var w = new Worker(tokenizer, spill, budget / threads);
+                    lock (workers) workers.Add(w);
+                    return w;
+                },
+                (unit, _, w) =>
+                {
+                    w.Begin(unit.Index);
+                    InputReader.Read(unit, source, w, w.Stats, n => Interlocked.Add(ref done, n), ct);
+                    unitTokens[unit.Index] = w.End();
+                    return w;
+                },
+                _ => { });
+        }
+        catch (AggregateException ae) when (ae.InnerExceptions.Count > 0)
+        {
+            spill.Dispose();
+            var first = ae.InnerExceptions.FirstOrDefault(e => e is SourceException or TokenizerException or CountingException) ?? ae.InnerExceptions[0];
+            System.Runtime.ExceptionServices.ExceptionDispatchInfo.Capture(first).Throw();
+            throw;
+        }
+        catch
+        {
+            spill.Dispose();
+            throw;
+        }
+        try
+        {
+            var stats = new SourceStats();
+            foreach (var w in workers) stats.Add(w.Stats);
+            long tokens = unitTokens.Sum();
+            if (tokens == 0)
+                throw new CountingException($"no tokens found in {string.Join(", ", inputs)}" + (skipped.Count > 0 ? $" ({skipped.Count} file(s) skipped as binary)" : ""));
+            var unitStart = new long[units.Count];
+            for (int i = 1; i < units.Count; i++) unitStart[i] = unitStart[i - 1] + unitTokens[i - 1];
+            var checkpoints = GrowthCurve.Checkpoints(tokens);
+            var growth = new GrowthHistogram(checkpoints, unitStart);
+
+            ICountRows rows;
+            FrequencySpectrum spectrum;
+            if (tokenizer.Identity == TokenIdentity.Ids)
+                (rows, spectrum) = RankIds(tokenizer, workers, growth);
+            else
+                (rows, spectrum) = RankBuilder.Build(workers.Select(w => w.Table).ToList(), spill, budget, growth);
+            var inputsInfo = files.Select(f => new InputInfo(f.Path, f.Length)).ToList();
+            var summary = new CountSummary(tokenizer.Spec, tokenizer.Normalization, tokenizer.CaseRule, tokens, spectrum.TypeCount,
+                stats.StoredBytes, stats.TextBytes, stats.ReplacedBytes, stats.Records, stats.MalformedRecords, stats.MissingField,
+                skipped, inputsInfo, threads, spill.Runs, sw.Elapsed.TotalSeconds);
+            handedOver = true;
+            return new CountResult(summary, rows, spectrum, growth.ToCurve(), tokenizer.Identity == TokenIdentity.Ids);
+        }
+        finally
+        {
+            if (!handedOver) spill.Dispose();
+        }
+    }
+
+    private static (ICountRows, FrequencySpectrum) RankIds(ITokenizer tok, List<Worker> workers, GrowthHistogram growth)
+    {
+        int v = tok.VocabularySize;
+        var counts = new long[v];
+        var first = new long[v];
+        Array.Fill(first, long.MaxValue);
+        foreach (var w in workers)
+            for (int i = 0; i < v; i++)
+            {
+                counts[i] += w.IdCounts![i];
+                if (w.IdFirst![i] < first[i]) first[i] = w.IdFirst[i];
+            }
+        var ids = Enumerable.Range(0, v).Where(i => counts[i] > 0).ToArray();
+        var display = ids.Select(tok.DisplayToken).ToArray();
+        var keys = display.Select(Encoding.UTF8.GetBytes).ToArray();
+        var order = Enumerable.Range(0, ids.Length).ToArray();
+        Array.Sort(order, (a, b) =>
+        {
+            int c = counts[ids[b]].CompareTo(counts[ids[a]]);
+            return c != 0 ? c : keys[a].AsSpan().SequenceCompareTo(keys[b]);
+        });
+        var rowTokens = order.Select(i => (string?)display[i]).ToArray();
+        var rowIds = order.Select(i => ids[i]).ToArray();
+        var rowCounts = order.Select(i => counts[ids[i]]).ToArray();
+        foreach (int id in ids) growth.Add(first[id]);
+        return (new InMemoryRows(rowTokens, rowIds, rowCounts), FrequencySpectrum.FromCounts(rowCounts));
+    }
+
+    /// <summary>One worker thread's state: its tokenizer session, table and counters.</summary>
+    private sealed class Worker : ITokenSink, ITextSink
+    {
+        private readonly ITokenizerSession _session;
+        private readonly SpillSet _spill;
+        private readonly long _budget;
+        private int _unit;
+        private long _pos;
+        private long _tokensBefore;
+
+        public Worker(ITokenizer tok, SpillSet spill, long budget)
+        {
+            _spill = spill;
+            _budget = budget;
+            if (tok.Identity == TokenIdentity.Ids)
+            {
+                IdCounts = new long[tok.VocabularySize];
+                IdFirst = new long[tok.VocabularySize];
+                Array.Fill(IdFirst, long.MaxValue);
+            }
+            _session = tok.CreateSession(this);
+        }
+
+        public TokenTable Table { get; } = new();
+        public long[]? IdCounts { get; }
+        public long[]? IdFirst { get; }
+        public SourceStats Stats { get; } = new();
+        public long Tokens => _tokensBefore + _pos;
+
+        public void Begin(int unit) { _unit = unit; _pos = 0; }
+
+        public long End()
+        {
+            long n = _pos;
+            _tokensBefore += n;
+            _pos = 0;
+            return n;
+        }
+
+        public void Write(ReadOnlySpan<byte> utf8, bool endOfDocument) => _session.Feed(utf8, endOfDocument);
+
+        public void AddToken(ReadOnlySpan<byte> utf8)
+        {
+            Table.Add(utf8, 1, TokenTable.PackPosition(_unit, _pos));
+            if ((++_pos & 0xFFFF) == 0 && Table.MemoryBytes > _budget) _spill.Spill(Table);
+        }
+
+        public void AddId(int id)
+        {
+            IdCounts![id]++;
+            long p = TokenTable.PackPosition(_unit, _pos++);
+            if (p < IdFirst![id]) IdFirst[id] = p;
+        }
+    }
+}
+
+/// <summary>Counts types by the growth checkpoint at which each was first seen.</summary>
+internal sealed class GrowthHistogram(long[] checkpoints, long[]? unitStart)
+{
+    private readonly long[] _hist = new long[checkpoints.Length + 1];
+
+    /// <summary>Records a type first seen at packed position <paramref name="first"/>.</summary>
+    public void Add(long first)
+    {
+        if (unitStart is null || first == long.MaxValue) return;
+        long global = unitStart[(int)(first >> 40)] + (first & ((1L << 40) - 1));
+        // first checkpoint c with checkpoints[c] > global: the type is counted from there on
+        int i = Array.BinarySearch(checkpoints, global + 1);
+        if (i < 0) i = ~i;
+        _hist[i]++;
+    }
+
+    public GrowthCurve ToCurve()
+    {
+        if (unitStart is null) return new GrowthCurve([], []);
+        var types = new long[checkpoints.Length];
+        long run = 0;
+        for (int c = 0; c < checkpoints.Length; c++) { run += _hist[c]; types[c] = run; }
+        return new GrowthCurve(checkpoints, types);
+    }
+}

@@ -1,0 +1,163 @@
+using System.Text;
+
+namespace RankFreq.Counting;
+
+/// <summary>Temporary folder of spill runs, removed on dispose (success, failure or cancellation).</summary>
+internal sealed class SpillSet(string? root) : IDisposable
+{
+    private readonly object _gate = new();
+    private string? _dir;
+    private int _next;
+    public List<string> Phase1 { get; } = [];
+    public int Runs { get { lock (_gate) return _next; } }
+
+    public string NewPath()
+    {
+        lock (_gate)
+        {
+            if (_dir is null)
+            {
+                string baseDir = root ?? Path.GetTempPath();
+                _dir = Path.Combine(baseDir, $"rankfreq-spill-{Environment.ProcessId}-{Guid.NewGuid():N}");
+                try { Directory.CreateDirectory(_dir); }
+                catch (Exception e) { throw new CountingException($"{baseDir}: cannot create a temporary folder for spill runs ({e.Message})", e); }
+            }
+            return Path.Combine(_dir, $"run-{_next++:D5}.bin");
+        }
+    }
+
+    /// <summary>Writes a table as a key-sorted run and clears it.</summary>
+    public void Spill(TokenTable table)
+    {
+        if (table.Count == 0) return;
+        string path = NewPath();
+        try
+        {
+            using (var w = new RunWriter(path))
+                foreach (int i in table.IndicesByKey())
+                {
+                    var e = table.Entries[i];
+                    w.Write(table.Key(e), e.Count, e.First, e.Id);
+                }
+        }
+        catch (IOException e) { throw new CountingException($"{path}: cannot write a spill run ({e.Message}); free disk space or set a larger --memory", e); }
+        lock (_gate) Phase1.Add(path);
+        table.Clear();
+    }
+
+    public void Dispose()
+    {
+        lock (_gate)
+        {
+            if (_dir is not null && Directory.Exists(_dir))
+            {
+                try { Directory.Delete(_dir, recursive: true); } catch (IOException) { } catch (UnauthorizedAccessException) { }
+            }
+            _dir = null;
+        }
+    }
+}
+
+/// <summary>Turns worker tables (and spill runs) into the rank table, the spectrum and the growth histogram.</summary>
+internal static class RankBuilder
+{
+    public static (ICountRows Rows, FrequencySpectrum Spectrum) Build(List<TokenTable> tables, SpillSet spill, long budget, GrowthHistogram growth, bool withIds = false)
+    {
+        if (spill.Phase1.Count == 0)
+        {
+            var all = tables.OrderByDescending(t => t.Count).ToList();
+            var main = all[0];
+            for (int i = 1; i < all.Count; i++) { main.MergeFrom(all[i]); all[i].Clear(); }
+            var idx = main.IndicesByRank();
+            var tokens = new string?[idx.Length];
+            var counts = new long[idx.Length];
+            var ids = withIds ? new int[idx.Length] : null;
+            var spec = new Dictionary<long, long>();
+            for (int r = 0; r < idx.Length; r++)
+            {
+                var e = main.Entries[idx[r]];
+                tokens[r] = Encoding.UTF8.GetString(main.Key(e));
+                counts[r] = e.Count;
+                if (ids is not null) ids[r] = e.Id;
+                spec[e.Count] = spec.GetValueOrDefault(e.Count) + 1;
+                growth.Add(e.First);
+            }
+            main.Clear();
+            spill.Dispose();
+            return (new InMemoryRows(tokens, ids, counts), FrequencySpectrum.FromPairs(spec.Select(kv => (kv.Key, kv.Value))));
+        }
+
+        foreach (var t in tables) spill.Spill(t);
+        var spectrum = new Dictionary<long, long>();
+        var phase2 = new List<string>();
+        var buffer = new List<RunRecord>();
+        long bufBytes = 0;
+        void Flush()
+        {
+            if (buffer.Count == 0) return;
+            buffer.Sort(RunMerge.ByRank);
+            string path = spill.NewPath();
+            using (var w = new RunWriter(path))
+                foreach (var r in buffer) w.Write(r.Key, r.Count, r.First, r.Id);
+            phase2.Add(path);
+            buffer.Clear();
+            bufBytes = 0;
+        }
+        RunRecord? cur = null;
+        foreach (var rec in RunMerge.Merge(spill.Phase1.ToList(), RunMerge.ByKey))
+        {
+            if (cur is not null && cur.Key.AsSpan().SequenceEqual(rec.Key))
+            {
+                cur = cur with { Count = cur.Count + rec.Count, First = Math.Min(cur.First, rec.First) };
+                continue;
+            }
+            if (cur is not null) Emit(cur);
+            cur = rec;
+        }
+        if (cur is not null) Emit(cur);
+        Flush();
+        foreach (var p in spill.Phase1) File.Delete(p);
+        return (new SpilledRows(phase2, spill, withIds), FrequencySpectrum.FromPairs(spectrum.Select(kv => (kv.Key, kv.Value))));
+
+        void Emit(RunRecord r)
+        {
+            spectrum[r.Count] = spectrum.GetValueOrDefault(r.Count) + 1;
+            growth.Add(r.First);
+            buffer.Add(r);
+            bufBytes += r.Key.Length + 96;
+            if (bufBytes > budget) Flush();
+        }
+    }
+
+    /// <summary>Rank-ordered rows merged from rank-sorted runs on disk; can be read once; dispose removes the runs.</summary>
+    private sealed class SpilledRows(List<string> runs, SpillSet spill, bool withIds) : ICountRows
+    {
+        private bool _read;
+        public bool Repeatable => false;
+
+        public IEnumerable<CountRowBatch> Batches(int batchSize = 1 << 20)
+        {
+            if (_read) throw new InvalidOperationException("spilled rows can be read once");
+            _read = true;
+            long rank = 1;
+            var tokens = new List<string?>(batchSize);
+            var counts = new List<long>(batchSize);
+            var ids = new List<int>(withIds ? batchSize : 0);
+            foreach (var r in RunMerge.Merge(runs, RunMerge.ByRank))
+            {
+                tokens.Add(Encoding.UTF8.GetString(r.Key));
+                counts.Add(r.Count);
+                if (withIds) ids.Add(r.Id);
+                if (counts.Count == batchSize)
+                {
+                    yield return new CountRowBatch(rank, tokens.ToArray(), withIds ? ids.ToArray() : null, counts.ToArray());
+                    rank += counts.Count;
+                    tokens.Clear(); counts.Clear(); ids.Clear();
+                }
+            }
+            if (counts.Count > 0) yield return new CountRowBatch(rank, tokens.ToArray(), withIds ? ids.ToArray() : null, counts.ToArray());
+        }
+
+        public void Dispose() => spill.Dispose();
+    }
+}

@@ -1,0 +1,90 @@
+namespace RankFreq.Counting;
+
+/// <summary>A type in a spill run: key bytes, count, first position, vocabulary id.</summary>
+internal sealed record RunRecord(byte[] Key, long Count, long First, int Id);
+
+/// <summary>Writes records to a temporary run file (7-bit varints, keys length-prefixed).</summary>
+internal sealed class RunWriter : IDisposable
+{
+    private readonly BinaryWriter _w;
+    public string Path { get; }
+    public long Records { get; private set; }
+
+    public RunWriter(string path)
+    {
+        Path = path;
+        _w = new BinaryWriter(new BufferedStream(new FileStream(path, FileMode.CreateNew, FileAccess.Write, FileShare.None, 1), 1 << 16));
+    }
+
+    public void Write(ReadOnlySpan<byte> key, long count, long first, int id)
+    {
+        _w.Write7BitEncodedInt(key.Length);
+        _w.Write(key);
+        _w.Write7BitEncodedInt64(count);
+        _w.Write7BitEncodedInt64(first);
+        _w.Write7BitEncodedInt(id + 1);
+        Records++;
+    }
+
+    public void Dispose() => _w.Dispose();
+}
+
+/// <summary>Reads a run file back one record at a time.</summary>
+internal sealed class RunReader : IDisposable
+{
+    private readonly BinaryReader _r;
+    private readonly long _length;
+    public RunRecord? Current { get; private set; }
+
+    public RunReader(string path)
+    {
+        var fs = new FileStream(path, FileMode.Open, FileAccess.Read, FileShare.Read, 1 << 16, FileOptions.SequentialScan);
+        _length = fs.Length;
+        _r = new BinaryReader(fs);
+        MoveNext();
+    }
+
+    public bool MoveNext()
+    {
+        if (_r.BaseStream.Position >= _length) { Current = null; return false; }
+        int len = _r.Read7BitEncodedInt();
+        var key = _r.ReadBytes(len);
+        long count = _r.Read7BitEncodedInt64();
+        long first = _r.Read7BitEncodedInt64();
+        int id = _r.Read7BitEncodedInt() - 1;
+        Current = new RunRecord(key, count, first, id);
+        return true;
+    }
+
+    public void Dispose() => _r.Dispose();
+}
+
+/// <summary>Merges sorted runs into one sorted stream (a k-way merge on a priority queue).</summary>
+internal static class RunMerge
+{
+    public static IEnumerable<RunRecord> Merge(IReadOnlyList<string> runs, IComparer<RunRecord> order)
+    {
+        var readers = runs.Select(p => new RunReader(p)).ToList();
+        try
+        {
+            var pq = new PriorityQueue<RunReader, RunRecord>(order);
+            foreach (var r in readers) if (r.Current is { } c) pq.Enqueue(r, c);
+            while (pq.TryDequeue(out var r, out var rec))
+            {
+                yield return rec;
+                if (r.MoveNext()) pq.Enqueue(r, r.Current!);
+            }
+        }
+        finally { foreach (var r in readers) r.Dispose(); }
+    }
+
+    /// <summary>Key order (ordinal bytes).</summary>
+    public static readonly IComparer<RunRecord> ByKey = Comparer<RunRecord>.Create((a, b) => a.Key.AsSpan().SequenceCompareTo(b.Key));
+
+    /// <summary>Rank order: count descending, ties by key bytes.</summary>
+    public static readonly IComparer<RunRecord> ByRank = Comparer<RunRecord>.Create((a, b) =>
+    {
+        int c = b.Count.CompareTo(a.Count);
+        return c != 0 ? c : a.Key.AsSpan().SequenceCompareTo(b.Key);
+    });
+}

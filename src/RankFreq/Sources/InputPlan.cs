@@ -1,0 +1,181 @@
+using Microsoft.Extensions.FileSystemGlobbing;
+
+namespace RankFreq.Sources;
+
+/// <summary>One input file (or standard input) with what was learned from its first bytes.</summary>
+/// <param name="Path">Path as given or found ("-" for standard input).</param>
+/// <param name="Length">Stored size in bytes (0 for standard input).</param>
+/// <param name="Compression">Compression detected from magic bytes.</param>
+/// <param name="Format">Format chosen (never Auto).</param>
+public sealed record InputFile(string Path, long Length, CompressionKind Compression, InputFormat Format)
+{
+    /// <summary>Whether this is standard input.</summary>
+    public bool IsStdin => Path == "-";
+    internal byte[]? StdinPeek { get; init; }
+}
+
+/// <summary>A file skipped with the reason.</summary>
+public sealed record SkippedFile(string Path, string Reason);
+
+/// <summary>A part of the work: a whole file, or a byte range of a plain uncompressed text file.</summary>
+/// <param name="Index">Position in corpus order (files in sorted path order, ranges in file order).</param>
+/// <param name="File">The input.</param>
+/// <param name="Start">First byte of the range.</param>
+/// <param name="End">End of the range (exclusive), or -1 for the whole file.</param>
+public sealed record WorkUnit(int Index, InputFile File, long Start, long End);
+
+/// <summary>Expands input arguments into files, detects compression and format, and plans the work units.</summary>
+public static class InputPlanner
+{
+    private const int PeekBytes = 8192;
+
+    /// <summary>
+    /// Files, folders (recursive, filtered by include/exclude globs) and "-" for standard input, in sorted path
+    /// order; missing inputs are errors, files with NUL bytes in their first 8 KiB are skipped.
+    /// </summary>
+    public static (IReadOnlyList<InputFile> Files, IReadOnlyList<SkippedFile> Skipped) Expand(IEnumerable<string> inputs, SourceOptions options)
+    {
+        var paths = new List<string>();
+        bool stdin = false;
+        foreach (var input in inputs)
+        {
+            if (input == "-") { stdin = true; continue; }
+            if (Directory.Exists(input))
+            {
+                var m = new Matcher(StringComparison.Ordinal);
+                if (options.Include is { Count: > 0 } inc) m.AddIncludePatterns(inc); else m.AddInclude("**/*");
+                if (options.Exclude is { Count: > 0 } exc) m.AddExcludePatterns(exc);
+                foreach (var f in m.GetResultsInFullPath(input))
+                    paths.Add(System.IO.Path.GetRelativePath(Environment.CurrentDirectory, f) is var rel && !rel.StartsWith("..") ? rel : f);
+            }
+            else if (File.Exists(input)) paths.Add(input);
+            else throw new SourceException($"{input}: no such file or folder");
+        }
+        paths = paths.Distinct(StringComparer.Ordinal).Order(StringComparer.Ordinal).ToList();
+
+        var files = new List<InputFile>();
+        var skipped = new List<SkippedFile>();
+        if (stdin)
+        {
+            var head = ReadHead(Console.OpenStandardInput(), out var peek);
+            files.Add(Classify("-", 0, head.kind, head.text, options) with { StdinPeek = peek });
+        }
+        foreach (var p in paths)
+        {
+            long len;
+            (CompressionKind kind, byte[] text) head;
+            try
+            {
+                len = new FileInfo(p).Length;
+                using var fs = new FileStream(p, FileMode.Open, FileAccess.Read, FileShare.Read, 1, FileOptions.None);
+                head = ReadHead(fs, out _);
+            }
+            catch (UnauthorizedAccessException) { throw new SourceException($"{p}: permission denied"); }
+            catch (IOException e) when (e is not FileNotFoundException) { throw new SourceException($"{p}: cannot read ({e.Message})"); }
+            catch (Exception e) when (e is InvalidDataException or ZstdSharp.ZstdException || e.GetType().Namespace?.StartsWith("SharpCompress") == true)
+            {
+                throw new SourceException($"{p}: corrupt {DescribeCompression(p)} data at the start of the file ({e.Message})");
+            }
+            var f = Classify(p, len, head.kind, head.text, options);
+            if (f.Format != InputFormat.Parquet && Array.IndexOf(head.text, (byte)0) >= 0)
+            {
+                skipped.Add(new SkippedFile(p, "binary file: NUL bytes in its first 8 KiB"));
+                continue;
+            }
+            files.Add(f);
+        }
+        return (files, skipped);
+    }
+
+    private static string DescribeCompression(string p)
+    {
+        try
+        {
+            using var fs = File.OpenRead(p);
+            Span<byte> b = stackalloc byte[8];
+            int n = fs.Read(b);
+            var k = Decompression.Detect(b[..n]);
+            return k == CompressionKind.None ? "" : k.ToString().ToLowerInvariant();
+        }
+        catch { return ""; }
+    }
+
+    /// <summary>Reads the first raw bytes and the first decompressed bytes.</summary>
+    private static (CompressionKind kind, byte[] text) ReadHead(Stream s, out byte[] rawPeek)
+    {
+        var raw = new byte[PeekBytes];
+        int n = ReadFully(s, raw);
+        rawPeek = raw[..n];
+        var kind = Decompression.Detect(rawPeek);
+        if (kind == CompressionKind.None) return (kind, rawPeek);
+        using var d = Decompression.Open(new PrefixStream(rawPeek, Stream.Null), kind);
+        var text = new byte[PeekBytes];
+        int m = 0;
+        try { m = ReadFully(d, text); }
+        catch (EndOfStreamException) { }
+        catch (Exception) when (n < PeekBytes) { throw; }
+        catch (Exception) { /* the peek may end mid-block; the full read reports real corruption */ }
+        return (kind, text[..m]);
+    }
+
+    internal static int ReadFully(Stream s, Span<byte> buf)
+    {
+        int total = 0;
+        while (total < buf.Length)
+        {
+            int r = s.Read(buf[total..]);
+            if (r <= 0) break;
+            total += r;
+        }
+        return total;
+    }
+
+    private static InputFile Classify(string path, long len, CompressionKind kind, byte[] head, SourceOptions o)
+    {
+        var fmt = o.Format;
+        if (fmt == InputFormat.Auto)
+        {
+            string name = Decompression.StripExtension(System.IO.Path.GetFileName(path)).ToLowerInvariant();
+            if (kind == CompressionKind.None && head.Length >= 4 && head[0] == 'P' && head[1] == 'A' && head[2] == 'R' && head[3] == '1') fmt = InputFormat.Parquet;
+            else if (name.EndsWith(".jsonl") || name.EndsWith(".ndjson")) fmt = InputFormat.JsonLines;
+            else if (name.EndsWith(".parquet")) fmt = InputFormat.Parquet;
+            else if (LooksLikeJsonLines(head)) fmt = InputFormat.JsonLines;
+            else fmt = InputFormat.Text;
+        }
+        if (fmt == InputFormat.Parquet && (kind != CompressionKind.None || path == "-"))
+            throw new SourceException($"{path}: Parquet input must be an uncompressed file (Parquet compresses its own pages)");
+        return new InputFile(path, len, kind, fmt);
+    }
+
+    private static bool LooksLikeJsonLines(byte[] head)
+    {
+        int nl = Array.IndexOf(head, (byte)'\n');
+        if (nl < 0) return false;
+        var line = head.AsSpan(0, nl).Trim((byte)' ').TrimEnd((byte)'\r');
+        if (line.StartsWith((ReadOnlySpan<byte>)[0xEF, 0xBB, 0xBF])) line = line[3..];
+        if (line.Length < 2 || line[0] != '{' || line[^1] != '}') return false;
+        try { using var _ = System.Text.Json.JsonDocument.Parse(line.ToArray()); return true; }
+        catch (System.Text.Json.JsonException) { return false; }
+    }
+
+    /// <summary>
+    /// Work units in corpus order; a plain uncompressed text file over <paramref name="splitAbove"/> bytes is cut
+    /// into ranges that start after a newline, when the tokenizer never joins tokens across a newline.
+    /// </summary>
+    public static IReadOnlyList<WorkUnit> Plan(IReadOnlyList<InputFile> files, bool mayCutAtNewlines, int parts, long splitAbove = 16L << 20)
+    {
+        var units = new List<WorkUnit>();
+        foreach (var f in files)
+        {
+            if (mayCutAtNewlines && !f.IsStdin && f.Compression == CompressionKind.None && f.Format == InputFormat.Text && f.Length > splitAbove && parts > 1)
+            {
+                int k = (int)Math.Min(parts, f.Length / (splitAbove / 4));
+                long step = f.Length / k;
+                for (int i = 0; i < k; i++)
+                    units.Add(new WorkUnit(units.Count, f, i * step, i == k - 1 ? f.Length : (i + 1) * step));
+            }
+            else units.Add(new WorkUnit(units.Count, f, 0, -1));
+        }
+        return units;
+    }
+}

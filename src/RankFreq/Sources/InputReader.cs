@@ -1,0 +1,233 @@
+using System.Buffers;
+using System.Text;
+using System.Text.Json;
+using Parquet;
+using Parquet.Schema;
+
+namespace RankFreq.Sources;
+
+/// <summary>Reads one work unit and writes its text to a sink: decompression, UTF-8 repair, record extraction.</summary>
+public static class InputReader
+{
+    private const int BlockBytes = 1 << 20;
+
+    /// <summary>
+    /// Reads <paramref name="unit"/>; <paramref name="progress"/> is called with stored bytes consumed since the last call.
+    /// Throws <see cref="SourceException"/> naming the file (and line or byte offset) on bad input.
+    /// </summary>
+    public static void Read(WorkUnit unit, SourceOptions options, ITextSink sink, SourceStats stats, Action<long>? progress, CancellationToken ct)
+    {
+        var f = unit.File;
+        try
+        {
+            switch (f.Format)
+            {
+                case InputFormat.Parquet: ReadParquet(f, options, sink, stats, progress, ct); break;
+                default: ReadStream(unit, options, sink, stats, progress, ct); break;
+            }
+        }
+        catch (SourceException) { throw; }
+        catch (OperationCanceledException) { throw; }
+        catch (UnauthorizedAccessException) { throw new SourceException($"{f.Path}: permission denied"); }
+        catch (FileNotFoundException) { throw new SourceException($"{f.Path}: file disappeared while reading"); }
+    }
+
+    private static void ReadStream(WorkUnit unit, SourceOptions options, ITextSink sink, SourceStats stats, Action<long>? progress, CancellationToken ct)
+    {
+        var f = unit.File;
+        Stream raw = f.IsStdin
+            ? new PrefixStream(f.StdinPeek ?? [], Console.OpenStandardInput())
+            : new FileStream(f.Path, FileMode.Open, FileAccess.Read, FileShare.Read, 1 << 16, FileOptions.SequentialScan);
+        long start = unit.Start, end = unit.End;
+        if (start > 0)
+        {
+            raw.Seek(start - 1, SeekOrigin.Begin);
+            start = SkipPartialLine(raw, start - 1);
+        }
+        using var counted = new CountingStream(raw);
+        using var text = Decompression.Open(counted, f.Compression);
+        var sanitizer = new Utf8Sanitizer(f.Format == InputFormat.JsonLines
+            ? new JsonLinesExtractor(f.Path, options, sink, stats)
+            : sink);
+        if (unit.Start > 0) sanitizer.Write([], false); // not at file start: no BOM to skip
+
+        byte[] buf = ArrayPool<byte>.Shared.Rent(BlockBytes);
+        long pos = start, reported = 0;
+        try
+        {
+            while (true)
+            {
+                ct.ThrowIfCancellationRequested();
+                int n;
+                try { n = text.Read(buf, 0, BlockBytes); }
+                catch (Exception e) when (IsDecoderFault(e))
+                {
+                    throw new SourceException($"{f.Path}: corrupt or truncated {f.Compression.ToString().ToLowerInvariant()} data near byte {start + counted.BytesRead} ({e.Message})", e);
+                }
+                if (n <= 0) break;
+                var block = buf.AsSpan(0, n);
+                bool last = false;
+                if (end >= 0 && pos + n >= end)
+                {
+                    // This range owns lines that start before End: stop after the newline at or past End-1.
+                    long from = Math.Max(0, end - 1 - pos);
+                    int nl = from < n ? block[(int)from..].IndexOf((byte)'\n') : -1;
+                    if (nl >= 0) { block = block[..((int)from + nl + 1)]; last = true; }
+                }
+                pos += block.Length;
+                stats.TextBytes += block.Length;
+                sanitizer.Write(block, false);
+                long done = f.Compression == CompressionKind.None ? pos - unit.Start : counted.BytesRead;
+                progress?.Invoke(done - reported);
+                reported = done;
+                if (last) break;
+            }
+            sanitizer.Write([], true);
+            stats.ReplacedBytes += sanitizer.ReplacedBytes;
+            stats.StoredBytes += f.Compression == CompressionKind.None ? pos - unit.Start : counted.BytesRead;
+        }
+        finally { ArrayPool<byte>.Shared.Return(buf); }
+    }
+
+    private static long SkipPartialLine(Stream s, long pos)
+    {
+        int b;
+        while ((b = s.ReadByte()) >= 0)
+        {
+            pos++;
+            if (b == '\n') break;
+        }
+        return pos;
+    }
+
+    private static bool IsDecoderFault(Exception e) =>
+        e is InvalidDataException or ZstdSharp.ZstdException or EndOfStreamException or InvalidOperationException or IndexOutOfRangeException or ArgumentException
+        || e.GetType().Namespace?.StartsWith("SharpCompress", StringComparison.Ordinal) == true
+        || (e is IOException && e is not FileNotFoundException);
+
+    private static void ReadParquet(InputFile f, SourceOptions options, ITextSink sink, SourceStats stats, Action<long>? progress, CancellationToken ct)
+    {
+        using var fs = File.OpenRead(f.Path);
+        ParquetReader reader;
+        try { reader = ParquetReader.CreateAsync(fs, cancellationToken: ct).GetAwaiter().GetResult(); }
+        catch (Exception e) when (e is not OperationCanceledException)
+        {
+            throw new SourceException($"{f.Path}: not a readable Parquet file ({e.Message})", e);
+        }
+        try
+        {
+            var field = reader.Schema.GetDataFields().FirstOrDefault(d => d.Name == options.TextColumn || d.Path.ToString() == options.TextColumn)
+                ?? throw new SourceException($"{f.Path}: no column '{options.TextColumn}' (columns: {string.Join(", ", reader.Schema.GetDataFields().Select(d => d.Name))}); use --text-column");
+            if (field.ClrType != typeof(string))
+                throw new SourceException($"{f.Path}: column '{field.Name}' holds {field.ClrType.Name}, not text");
+            var bytes = new byte[4096];
+            long lastPos = 0;
+            for (int g = 0; g < reader.RowGroupCount; g++)
+            {
+                ct.ThrowIfCancellationRequested();
+                using var rg = reader.OpenRowGroupReader(g);
+                var values = new string?[rg.RowCount];
+                rg.ReadAsync(field, values.AsMemory(), null, ct).GetAwaiter().GetResult();
+                foreach (string? v in values)
+                {
+                    stats.Records++;
+                    if (v is null) { stats.MissingField++; continue; }
+                    int max = Encoding.UTF8.GetMaxByteCount(v.Length);
+                    if (bytes.Length < max) bytes = new byte[max];
+                    int n = Encoding.UTF8.GetBytes(v, bytes);
+                    stats.TextBytes += n;
+                    sink.Write(bytes.AsSpan(0, n), true);
+                }
+                progress?.Invoke(fs.Position - lastPos);
+                lastPos = fs.Position;
+            }
+            stats.StoredBytes += f.Length;
+        }
+        finally { reader.DisposeAsync().AsTask().GetAwaiter().GetResult(); }
+    }
+
+    /// <summary>Splits sanitized text into JSON Lines records and writes each record's text field as one document.</summary>
+    private sealed class JsonLinesExtractor(string path, SourceOptions options, ITextSink sink, SourceStats stats) : ITextSink
+    {
+        private readonly string[] _fieldPath = options.TextField.Split('.');
+        private byte[] _line = new byte[1 << 16];
+        private int _lineLen;
+        private long _lineNo;
+        private byte[] _value = new byte[1 << 12];
+
+        public void Write(ReadOnlySpan<byte> utf8, bool endOfDocument)
+        {
+            while (!utf8.IsEmpty)
+            {
+                int nl = utf8.IndexOf((byte)'\n');
+                var part = nl < 0 ? utf8 : utf8[..nl];
+                Append(part);
+                if (nl < 0) break;
+                Record();
+                utf8 = utf8[(nl + 1)..];
+            }
+            if (endOfDocument && _lineLen > 0) Record();
+        }
+
+        private void Append(ReadOnlySpan<byte> part)
+        {
+            long need = (long)_lineLen + part.Length;
+            if (need > options.MaxRecordBytes)
+                throw new SourceException($"{path}:{_lineNo + 1}: record longer than --max-record ({options.MaxRecordBytes} bytes)");
+            if (_line.Length < need) Array.Resize(ref _line, (int)Math.Min(Math.Max(need, _line.Length * 2L), Array.MaxLength));
+            part.CopyTo(_line.AsSpan(_lineLen));
+            _lineLen += part.Length;
+        }
+
+        private void Record()
+        {
+            _lineNo++;
+            var line = _line.AsSpan(0, _lineLen);
+            _lineLen = 0;
+            if (line.Length > 0 && line[^1] == '\r') line = line[..^1];
+            if (line.Trim((byte)' ').IsEmpty) return;
+            stats.Records++;
+            int len;
+            bool found;
+            try { found = Extract(line, out len); }
+            catch (Exception e) when (e is JsonException or InvalidOperationException)
+            {
+                if (options.Strict) throw new SourceException($"{path}:{_lineNo}: malformed JSON record ({e.Message.Split('\n')[0]})");
+                stats.MalformedRecords++;
+                return;
+            }
+            if (!found) { stats.MissingField++; return; }
+            sink.Write(_value.AsSpan(0, len), true);
+        }
+
+        private bool Extract(ReadOnlySpan<byte> json, out int len)
+        {
+            len = 0;
+            bool found = false;
+            var r = new Utf8JsonReader(json, new JsonReaderOptions { CommentHandling = JsonCommentHandling.Disallow });
+            if (!r.Read() || r.TokenType != JsonTokenType.StartObject) throw new JsonException("a record must be a JSON object");
+            int level = 0;
+            while (r.Read())
+            {
+                if (r.TokenType == JsonTokenType.PropertyName && !found && r.CurrentDepth == level + 1 && level < _fieldPath.Length && r.ValueTextEquals(_fieldPath[level]))
+                {
+                    r.Read();
+                    if (level == _fieldPath.Length - 1)
+                    {
+                        if (r.TokenType == JsonTokenType.String)
+                        {
+                            int max = r.HasValueSequence ? (int)r.ValueSequence.Length : r.ValueSpan.Length;
+                            if (_value.Length < max) _value = new byte[Math.Max(max, _value.Length * 2)];
+                            len = r.CopyString(_value);
+                            found = true;
+                        }
+                        else r.Skip();
+                    }
+                    else if (r.TokenType == JsonTokenType.StartObject) level++;
+                    else r.Skip();
+                }
+            }
+            return found;
+        }
+    }
+}

@@ -1,0 +1,51 @@
+namespace RankFreq.Storage;
+
+/// <summary>Output that cannot be written.</summary>
+public sealed class StorageException(string message, Exception? inner = null) : Exception(message, inner);
+
+/// <summary>
+/// Writes a file through a temporary file in the target folder and renames it into place, so an interrupted
+/// run never leaves a partial file under the final name.
+/// </summary>
+public static class AtomicFile
+{
+    /// <summary>Runs <paramref name="write"/> on a temporary file beside <paramref name="path"/>, then renames it.</summary>
+    public static async Task WriteAsync(string path, Func<Stream, Task> write)
+    {
+        string full = Path.GetFullPath(path);
+        string dir = Path.GetDirectoryName(full)!;
+        if (!Directory.Exists(dir)) throw new StorageException($"{path}: folder {dir} does not exist");
+        string tmp = Path.Combine(dir, $".{Path.GetFileName(full)}.{Guid.NewGuid():N}.tmp");
+        try
+        {
+            await using (var fs = new FileStream(tmp, FileMode.CreateNew, FileAccess.ReadWrite, FileShare.None, 1 << 16))
+            {
+                await write(fs);
+                await fs.FlushAsync();
+            }
+            File.Move(tmp, full, overwrite: true);
+        }
+        catch (Exception e) when (e is UnauthorizedAccessException or IOException)
+        {
+            TryDelete(tmp);
+            throw new StorageException($"{path}: cannot write ({e.Message})", e);
+        }
+        catch
+        {
+            TryDelete(tmp);
+            throw;
+        }
+    }
+
+    /// <summary>Writes text atomically.</summary>
+    public static Task WriteTextAsync(string path, string text) =>
+        WriteAsync(path, async s => { var b = System.Text.Encoding.UTF8.GetBytes(text); await s.WriteAsync(b); });
+
+    /// <summary>Writes bytes atomically.</summary>
+    public static Task WriteBytesAsync(string path, byte[] bytes) => WriteAsync(path, async s => await s.WriteAsync(bytes));
+
+    private static void TryDelete(string p)
+    {
+        try { if (File.Exists(p)) File.Delete(p); } catch (IOException) { } catch (UnauthorizedAccessException) { }
+    }
+}

@@ -1,0 +1,276 @@
+using System.IO.Compression;
+using System.Reflection;
+using System.Text;
+using System.Text.RegularExpressions;
+using Microsoft.ML.Tokenizers;
+
+namespace RankFreq.Tokenization;
+
+/// <summary>
+/// A subword vocabulary (tiktoken, BPE, SentencePiece, WordPiece) counted through a distinct-chunk cache:
+/// the text is pre-tokenized into chunks, each distinct chunk is encoded once and its ids are replayed for
+/// every later occurrence. Because encoders work chunk by chunk, this gives exactly the ids of encoding the
+/// whole text (tested on a real corpus).
+/// </summary>
+/// <remarks>
+/// Special-token text in a corpus (an end-of-text marker, say) is counted as ordinary text: tiktoken vocabularies
+/// are built with no special tokens and the pre-tokenizer's regex is used without special-token splitting.
+/// Long texts are cut for memory only after a newline followed by an ASCII letter (or, failing that, between a
+/// letter and a space followed by a letter), which is a chunk boundary under the r50k, cl100k and o200k rules.
+/// Vocabularies with no pre-tokenizer (SentencePiece) are encoded line by line.
+/// </remarks>
+public sealed class SubwordTokenizer : ITokenizer
+{
+    private readonly Tokenizer _tokenizer;
+    private readonly PreTokenizer? _pre;
+    private readonly string[] _display;
+
+    private SubwordTokenizer(string spec, Tokenizer tokenizer, PreTokenizer? pre, string[] display)
+    {
+        Spec = spec;
+        _tokenizer = tokenizer;
+        _pre = pre;
+        _display = display;
+    }
+
+    /// <inheritdoc/>
+    public string Spec { get; }
+    /// <inheritdoc/>
+    public string Normalization => "none";
+    /// <inheritdoc/>
+    public string CaseRule => "kept";
+    /// <inheritdoc/>
+    public TokenIdentity Identity => TokenIdentity.Ids;
+    /// <inheritdoc/>
+    public int VocabularySize => _display.Length;
+    /// <inheritdoc/>
+    public bool SplitsAtNewlines => false;
+
+    /// <summary>The underlying Microsoft.ML.Tokenizers encoder (used by tests and benchmarks for comparison).</summary>
+    public Tokenizer Encoder => _tokenizer;
+
+    /// <inheritdoc/>
+    public string DisplayToken(int id) => (uint)id < (uint)_display.Length ? _display[id] : $"<id {id}>";
+
+    /// <inheritdoc/>
+    public ITokenizerSession CreateSession(ITokenSink sink) => new Session(this, sink);
+
+    /// <summary>Encodes a text whole, with no cache (the reference the cache is checked against).</summary>
+    public IReadOnlyList<int> EncodeWhole(string text) => _tokenizer.EncodeToIds(text, considerPreTokenization: true, considerNormalization: false);
+
+    /// <summary>Loads a tiktoken encoding embedded in the Microsoft.ML.Tokenizers data packages.</summary>
+    public static SubwordTokenizer Tiktoken(string encoding)
+    {
+        Assembly data = encoding switch
+        {
+            "cl100k_base" => Assembly.Load("Microsoft.ML.Tokenizers.Data.Cl100kBase"),
+            "o200k_base" => Assembly.Load("Microsoft.ML.Tokenizers.Data.O200kBase"),
+            "r50k_base" => Assembly.Load("Microsoft.ML.Tokenizers.Data.R50kBase"),
+            _ => throw new TokenizerException($"unknown tiktoken encoding '{encoding}'"),
+        };
+        string? resource = data.GetManifestResourceNames().FirstOrDefault(n => n.EndsWith($"{encoding}.tiktoken.deflate", StringComparison.Ordinal))
+            ?? throw new TokenizerException($"vocabulary data for '{encoding}' not found in its package");
+        var raw = new MemoryStream();
+        using (var s = data.GetManifestResourceStream(resource)!)
+        using (var inflate = new DeflateStream(s, CompressionMode.Decompress))
+            inflate.CopyTo(raw);
+
+        var display = ParseTiktokenDisplay(raw.ToArray());
+        var standard = TiktokenTokenizer.CreateForEncoding(encoding);
+        var pre = WithoutSpecialTokens(standard.PreTokenizer);
+        raw.Position = 0;
+        var tok = TiktokenTokenizer.Create(raw, pre, normalizer: null, specialTokens: null);
+        return new SubwordTokenizer(encoding, tok, pre, display);
+    }
+
+    /// <summary>A byte-level BPE vocabulary from a vocab.json and merges.txt pair.</summary>
+    public static SubwordTokenizer Bpe(string vocabPath, string mergesPath)
+    {
+        RequireFile(vocabPath); RequireFile(mergesPath);
+        try
+        {
+            var tok = BpeTokenizer.Create(vocabPath, mergesPath, PreTokenizer.CreateWordOrNonWord(), null, null, null, null, null, false);
+            var display = Invert(tok.Vocabulary.Select(kv => (kv.Key, kv.Value)));
+            return new SubwordTokenizer($"bpe:{vocabPath},{mergesPath}", tok, tok.PreTokenizer, display);
+        }
+        catch (Exception e) when (e is not TokenizerException)
+        {
+            throw new TokenizerException($"{vocabPath}: not a usable BPE vocabulary/merges pair ({e.Message})", e);
+        }
+    }
+
+    /// <summary>A SentencePiece model file.</summary>
+    public static SubwordTokenizer SentencePiece(string modelPath)
+    {
+        RequireFile(modelPath);
+        try
+        {
+            using var s = File.OpenRead(modelPath);
+            var tok = SentencePieceTokenizer.Create(s, false, false);
+            var display = Invert(tok.Vocabulary.Select(kv => (kv.Key, kv.Value)));
+            return new SubwordTokenizer($"sentencepiece:{modelPath}", tok, null, display);
+        }
+        catch (Exception e) when (e is not TokenizerException)
+        {
+            throw new TokenizerException($"{modelPath}: not a usable SentencePiece model ({e.Message})", e);
+        }
+    }
+
+    /// <summary>A WordPiece vocabulary, one token a line (line number = id).</summary>
+    public static SubwordTokenizer WordPiece(string vocabPath)
+    {
+        RequireFile(vocabPath);
+        try
+        {
+            var lines = File.ReadAllLines(vocabPath);
+            if (lines.Length == 0) throw new TokenizerException($"{vocabPath}: empty WordPiece vocabulary");
+            var tok = WordPieceTokenizer.Create(vocabPath, new WordPieceOptions());
+            return new SubwordTokenizer($"wordpiece:{vocabPath}", tok, tok.PreTokenizer, lines);
+        }
+        catch (Exception e) when (e is not TokenizerException)
+        {
+            throw new TokenizerException($"{vocabPath}: not a usable WordPiece vocabulary ({e.Message})", e);
+        }
+    }
+
+    private static void RequireFile(string path)
+    {
+        if (!File.Exists(path)) throw new TokenizerException($"{path}: vocabulary file not found");
+    }
+
+    private static string[] Invert(IEnumerable<(string Token, int Id)> vocab)
+    {
+        var list = vocab.ToList();
+        int max = list.Count == 0 ? -1 : list.Max(p => p.Id);
+        var arr = new string[max + 1];
+        for (int i = 0; i < arr.Length; i++) arr[i] = $"<id {i}>";
+        foreach (var (t, id) in list) if (id >= 0) arr[id] = t;
+        return arr;
+    }
+
+    /// <summary>Rebuilds a regex pre-tokenizer without its special-token splitting.</summary>
+    private static PreTokenizer? WithoutSpecialTokens(PreTokenizer? pre)
+    {
+        if (pre is not RegexPreTokenizer) return pre;
+        var field = typeof(RegexPreTokenizer).GetFields(BindingFlags.Instance | BindingFlags.NonPublic)
+            .FirstOrDefault(f => f.FieldType == typeof(Regex) && !f.Name.Contains("special", StringComparison.OrdinalIgnoreCase));
+        if (field?.GetValue(pre) is Regex regex) return new RegexPreTokenizer(regex, null);
+        return pre;
+    }
+
+    /// <summary>
+    /// Parses a tiktoken vocabulary: "base64 rank" lines, or (the packaged form) a "Capacity: N" line followed by one
+    /// base64 token a line with the rank implied by position. Each token shown as UTF-8 where valid, else escaped \xHH.
+    /// </summary>
+    internal static string[] ParseTiktokenDisplay(byte[] file)
+    {
+        var text = Encoding.ASCII.GetString(file);
+        var pairs = new List<(int, string)>();
+        int implicitRank = 0;
+        bool implicitRanks = false;
+        foreach (var rawLine in text.Split('\n'))
+        {
+            var line = rawLine.Trim();
+            if (line.Length == 0) continue;
+            if (line.StartsWith("Capacity:", StringComparison.Ordinal)) { implicitRanks = true; continue; }
+            int sp = line.IndexOf(' ');
+            if (implicitRanks && sp < 0)
+            {
+                pairs.Add((implicitRank++, Readable(Convert.FromBase64String(line))));
+                continue;
+            }
+            if (sp <= 0) continue;
+            pairs.Add((int.Parse(line.AsSpan(sp + 1)), Readable(Convert.FromBase64String(line[..sp]))));
+        }
+        var arr = new string[pairs.Max(p => p.Item1) + 1];
+        foreach (var (id, s) in pairs) arr[id] = s;
+        for (int i = 0; i < arr.Length; i++) arr[i] ??= $"<id {i}>";
+        return arr;
+    }
+
+    /// <summary>Valid UTF-8 decoded as is (a literal backslash doubled); every byte of an invalid sequence as \xHH.</summary>
+    internal static string Readable(ReadOnlySpan<byte> bytes)
+    {
+        var sb = new StringBuilder(bytes.Length);
+        int i = 0;
+        while (i < bytes.Length)
+        {
+            var st = System.Text.Rune.DecodeFromUtf8(bytes[i..], out var r, out int len);
+            if (st == System.Buffers.OperationStatus.Done)
+            {
+                if (r.Value == '\\') sb.Append("\\\\");
+                else sb.Append(r.ToString());
+                i += len;
+            }
+            else
+            {
+                for (int k = 0; k < Math.Max(1, len); k++) sb.Append($"\\x{bytes[i + k]:X2}");
+                i += Math.Max(1, len);
+            }
+        }
+        return sb.ToString();
+    }
+
+    private sealed class Session(SubwordTokenizer owner, ITokenSink sink) : ITokenizerSession
+    {
+        private const int CutAt = 1 << 20;
+        private const int CacheLimit = 1 << 20;
+        private readonly Dictionary<string, int[]> _cache = new();
+        private char[] _buf = new char[4096];
+        private int _len;
+
+        public void Feed(ReadOnlySpan<byte> utf8, bool eod)
+        {
+            int need = _len + Encoding.UTF8.GetMaxCharCount(utf8.Length);
+            if (_buf.Length < need) Array.Resize(ref _buf, Math.Max(need, _buf.Length * 2));
+            _len += Encoding.UTF8.GetChars(utf8, _buf.AsSpan(_len));
+            if (eod)
+            {
+                Encode(_buf.AsSpan(0, _len));
+                _len = 0;
+                return;
+            }
+            if (_len < CutAt) return;
+            int cut = SafeCut(_buf.AsSpan(0, _len));
+            if (cut <= 0) return;
+            Encode(_buf.AsSpan(0, cut));
+            _buf.AsSpan(cut, _len - cut).CopyTo(_buf);
+            _len -= cut;
+        }
+
+        internal static int SafeCut(ReadOnlySpan<char> t)
+        {
+            for (int p = t.Length - 1; p > 0; p--)
+                if (t[p - 1] == '\n' && char.IsAsciiLetter(t[p])) return p;
+            for (int p = t.Length - 2; p > 0; p--)
+                if (t[p] == ' ' && char.IsLetter(t[p - 1]) && char.IsLetter(t[p + 1])) return p;
+            return t.Length > 16 * CutAt ? t.Length : -1;
+        }
+
+        private void Encode(ReadOnlySpan<char> text)
+        {
+            if (text.IsEmpty) return;
+            if (owner._pre is null)
+            {
+                foreach (var range in text.EnumerateLines()) EncodeChunk(range);
+                return;
+            }
+            string s = text.ToString();
+            foreach (var (offset, length) in owner._pre.PreTokenize(s)) EncodeChunk(s.AsSpan(offset, length));
+        }
+
+        private void EncodeChunk(ReadOnlySpan<char> chunk)
+        {
+            if (chunk.IsEmpty) return;
+            var lookup = _cache.GetAlternateLookup<ReadOnlySpan<char>>();
+            if (!lookup.TryGetValue(chunk, out var ids))
+            {
+                var list = owner._tokenizer.EncodeToIds(chunk, considerPreTokenization: false, considerNormalization: false);
+                ids = list is int[] a ? a : list.ToArray();
+                if (_cache.Count >= CacheLimit) _cache.Clear();
+                lookup[chunk] = ids;
+            }
+            foreach (int id in ids) sink.AddId(id);
+        }
+    }
+}

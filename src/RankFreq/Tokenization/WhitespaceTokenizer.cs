@@ -1,0 +1,127 @@
+using System.Buffers;
+using System.Text;
+
+namespace RankFreq.Tokenization;
+
+/// <summary>The <c>whitespace</c> rule: a token is a maximal run of characters that are not Unicode White_Space; bytes kept as they are.</summary>
+public sealed class WhitespaceTokenizer : ITokenizer
+{
+    /// <inheritdoc/>
+    public string Spec => "whitespace";
+    /// <inheritdoc/>
+    public string Normalization => "none";
+    /// <inheritdoc/>
+    public string CaseRule => "kept";
+    /// <inheritdoc/>
+    public TokenIdentity Identity => TokenIdentity.Bytes;
+    /// <inheritdoc/>
+    public int VocabularySize => 0;
+    /// <inheritdoc/>
+    public bool SplitsAtNewlines => true;
+    /// <inheritdoc/>
+    public string DisplayToken(int id) => throw new NotSupportedException();
+    /// <inheritdoc/>
+    public ITokenizerSession CreateSession(ITokenSink sink) => new Session(sink);
+
+    private sealed class Session(ITokenSink sink) : ITokenizerSession
+    {
+        private readonly ArrayBufferWriter<byte> _carry = new();
+
+        public void Feed(ReadOnlySpan<byte> s, bool eod)
+        {
+            int i = 0, start = -1;
+            if (_carry.WrittenCount > 0)
+            {
+                // Extend the held token up to the first white space of this block.
+                int j = 0;
+                while (j < s.Length && !IsSpaceAt(s, j, out _)) j += Step(s, j);
+                _carry.Write(s[..j]);
+                if (j == s.Length && !eod && _carry.WrittenCount <= WordTokenizer.MaxTokenBytes) return;
+                sink.AddToken(_carry.WrittenSpan);
+                _carry.ResetWrittenCount();
+                i = j;
+            }
+            while (i < s.Length)
+            {
+                bool space = IsSpaceAt(s, i, out int len);
+                if (space)
+                {
+                    if (start >= 0) { sink.AddToken(s[start..i]); start = -1; }
+                }
+                else if (start < 0) start = i;
+                i += len;
+            }
+            if (start >= 0)
+            {
+                if (eod) sink.AddToken(s[start..]);
+                else _carry.Write(s[start..]);
+            }
+        }
+
+        private static int Step(ReadOnlySpan<byte> s, int i)
+        {
+            if (s[i] < 0x80) return 1;
+            Rune.DecodeFromUtf8(s[i..], out _, out int len);
+            return Math.Max(1, len);
+        }
+
+        private static bool IsSpaceAt(ReadOnlySpan<byte> s, int i, out int len)
+        {
+            byte b = s[i];
+            if (b < 0x80) { len = 1; return b is (byte)' ' or (byte)'\t' or (byte)'\n' or (byte)'\r' or 0x0B or 0x0C; }
+            Rune.DecodeFromUtf8(s[i..], out Rune r, out len);
+            len = Math.Max(1, len);
+            return Rune.IsWhiteSpace(r);
+        }
+    }
+}
+
+/// <summary>The <c>chars</c> rule: every extended grapheme cluster (UAX #29) that is not white space is a token, NFC-normalised, case kept.</summary>
+public sealed class GraphemeTokenizer : ITokenizer
+{
+    /// <inheritdoc/>
+    public string Spec => "chars";
+    /// <inheritdoc/>
+    public string Normalization => "NFC";
+    /// <inheritdoc/>
+    public string CaseRule => "kept";
+    /// <inheritdoc/>
+    public TokenIdentity Identity => TokenIdentity.Bytes;
+    /// <inheritdoc/>
+    public int VocabularySize => 0;
+    /// <inheritdoc/>
+    public bool SplitsAtNewlines => true;
+    /// <inheritdoc/>
+    public string DisplayToken(int id) => throw new NotSupportedException();
+    /// <inheritdoc/>
+    public ITokenizerSession CreateSession(ITokenSink sink) => new Session(sink);
+
+    private sealed class Session(ITokenSink sink) : ITokenizerSession
+    {
+        private readonly StringBuilder _pending = new();
+        private byte[] _bytes = new byte[64];
+
+        public void Feed(ReadOnlySpan<byte> utf8, bool eod)
+        {
+            _pending.Append(Encoding.UTF8.GetString(utf8));
+            string text = _pending.ToString();
+            _pending.Clear();
+            int i = 0;
+            while (i < text.Length)
+            {
+                int len = System.Globalization.StringInfo.GetNextTextElementLength(text.AsSpan(i));
+                // The last cluster may continue in the next block (combining marks, ZWJ sequences).
+                if (i + len == text.Length && !eod) { _pending.Append(text.AsSpan(i)); return; }
+                var cluster = text.AsSpan(i, len);
+                i += len;
+                if (cluster.Length == 1 && char.IsWhiteSpace(cluster[0])) continue;
+                if (cluster.Length == 2 && cluster[0] == '\r' && cluster[1] == '\n') continue;
+                string norm = cluster.IsNormalized() ? cluster.ToString() : cluster.ToString().Normalize();
+                int max = Encoding.UTF8.GetMaxByteCount(norm.Length);
+                if (_bytes.Length < max) _bytes = new byte[max * 2];
+                int nb = Encoding.UTF8.GetBytes(norm, _bytes);
+                sink.AddToken(_bytes.AsSpan(0, nb));
+            }
+        }
+    }
+}

@@ -1,0 +1,256 @@
+using System.Buffers;
+using System.Globalization;
+using System.Text;
+
+namespace RankFreq.Tokenization;
+
+/// <summary>
+/// The <c>words</c> rule: a token is a maximal run of letters (L*), combining marks (M*) and decimal digits (Nd);
+/// an apostrophe (U+0027 or U+2019) with a word character before it and a letter or digit after it stays inside;
+/// every Han ideograph is a token of its own; each token is NFC-normalised and, unless case is kept, lower-cased
+/// with the invariant culture.
+/// </summary>
+/// <remarks>
+/// Works on UTF-8 bytes; pure-ASCII tokens (the common case) take a table-driven path with no decoding.
+/// Scripts written without spaces other than Han (Thai, Lao, Khmer, Japanese kana) come out as one token per
+/// unbroken run of letters, i.e. per phrase, not per word: this rule does no dictionary segmentation.
+/// A run longer than <see cref="MaxTokenBytes"/> is cut into pieces of that size so memory stays bounded.
+/// </remarks>
+public sealed class WordTokenizer(bool keepCase) : ITokenizer
+{
+    /// <summary>Longest token kept whole, in UTF-8 bytes.</summary>
+    public const int MaxTokenBytes = 64 * 1024;
+
+    /// <inheritdoc/>
+    public string Spec => keepCase ? "words:keep-case" : "words";
+    /// <inheritdoc/>
+    public string Normalization => "NFC";
+    /// <inheritdoc/>
+    public string CaseRule => keepCase ? "kept" : "folded";
+    /// <inheritdoc/>
+    public TokenIdentity Identity => TokenIdentity.Bytes;
+    /// <inheritdoc/>
+    public int VocabularySize => 0;
+    /// <inheritdoc/>
+    public bool SplitsAtNewlines => true;
+    /// <inheritdoc/>
+    public string DisplayToken(int id) => throw new NotSupportedException();
+    /// <inheritdoc/>
+    public ITokenizerSession CreateSession(ITokenSink sink) => new Session(sink, keepCase);
+
+    // ASCII classes: 0 separator, 1 lower/digit, 2 upper, 3 apostrophe.
+    private static readonly byte[] AsciiClass = BuildAsciiClass();
+
+    private static byte[] BuildAsciiClass()
+    {
+        var t = new byte[128];
+        for (int c = 'a'; c <= 'z'; c++) t[c] = 1;
+        for (int c = '0'; c <= '9'; c++) t[c] = 1;
+        for (int c = 'A'; c <= 'Z'; c++) t[c] = 2;
+        t['\''] = 3;
+        return t;
+    }
+
+    internal enum Kind { Separator, Word, Apostrophe, Han }
+
+    internal static Kind Classify(Rune r)
+    {
+        int v = r.Value;
+        if (v < 0x80)
+        {
+            byte c = AsciiClass[v];
+            return c == 3 ? Kind.Apostrophe : c != 0 ? Kind.Word : Kind.Separator;
+        }
+        if (v == 0x2019) return Kind.Apostrophe;
+        if (IsHan(v)) return Kind.Han;
+        switch (Rune.GetUnicodeCategory(r))
+        {
+            case UnicodeCategory.UppercaseLetter:
+            case UnicodeCategory.LowercaseLetter:
+            case UnicodeCategory.TitlecaseLetter:
+            case UnicodeCategory.ModifierLetter:
+            case UnicodeCategory.OtherLetter:
+            case UnicodeCategory.NonSpacingMark:
+            case UnicodeCategory.SpacingCombiningMark:
+            case UnicodeCategory.EnclosingMark:
+            case UnicodeCategory.DecimalDigitNumber:
+                return Kind.Word;
+            default:
+                return Kind.Separator;
+        }
+    }
+
+    private static bool IsLetterOrDigit(Rune r)
+    {
+        if (r.Value < 0x80) return AsciiClass[r.Value] is 1 or 2;
+        var c = Rune.GetUnicodeCategory(r);
+        return c <= UnicodeCategory.OtherLetter || c == UnicodeCategory.DecimalDigitNumber;
+    }
+
+    /// <summary>CJK Unified Ideographs and their extensions and compatibility blocks.</summary>
+    internal static bool IsHan(int v) =>
+        (v >= 0x4E00 && v <= 0x9FFF) || (v >= 0x3400 && v <= 0x4DBF) || (v >= 0xF900 && v <= 0xFAFF) ||
+        (v >= 0x20000 && v <= 0x2FA1F) || (v >= 0x30000 && v <= 0x323AF);
+
+    private sealed class Session(ITokenSink sink, bool keepCase) : ITokenizerSession
+    {
+        private byte[] _carry = new byte[256];
+        private int _carryLen;
+        private byte[] _bytes = new byte[256];
+        private char[] _chars = new char[256];
+        private char[] _chars2 = new char[256];
+
+        public void Feed(ReadOnlySpan<byte> utf8, bool endOfDocument)
+        {
+            if (_carryLen == 0)
+            {
+                Process(utf8, endOfDocument);
+                return;
+            }
+            int total = _carryLen + utf8.Length;
+            byte[] joined = ArrayPool<byte>.Shared.Rent(total);
+            _carry.AsSpan(0, _carryLen).CopyTo(joined);
+            utf8.CopyTo(joined.AsSpan(_carryLen));
+            _carryLen = 0;
+            try { Process(joined.AsSpan(0, total), endOfDocument); }
+            finally { ArrayPool<byte>.Shared.Return(joined); }
+        }
+
+        private void Process(ReadOnlySpan<byte> s, bool eod)
+        {
+            int n = s.Length, i = 0, start = -1;
+            bool nonAscii = false, upper = false;
+            while (i < n)
+            {
+                byte b = s[i];
+                if (b < 0x80)
+                {
+                    byte c = AsciiClass[b];
+                    if (c == 1 || c == 2)
+                    {
+                        if (start < 0) { start = i; nonAscii = false; upper = false; }
+                        upper |= c == 2;
+                        i++;
+                        continue;
+                    }
+                    if (c == 3 && start >= 0)
+                    {
+                        if (!ApostropheStep(s, ref i, ref start, nonAscii, upper, eod, 1)) return;
+                        continue;
+                    }
+                    if (start >= 0) { Emit(s[start..i], nonAscii, upper); start = -1; }
+                    i++;
+                    continue;
+                }
+                var status = Rune.DecodeFromUtf8(s[i..], out Rune r, out int len);
+                if (status == OperationStatus.NeedMoreData && !eod)
+                {
+                    // Only reachable when a caller feeds a block that ends inside a sequence.
+                    Hold(s[(start >= 0 ? start : i)..]);
+                    return;
+                }
+                switch (Classify(r))
+                {
+                    case Kind.Word:
+                        if (start < 0) { start = i; upper = false; }
+                        nonAscii = true;
+                        i += len;
+                        break;
+                    case Kind.Apostrophe when start >= 0:
+                        if (!ApostropheStep(s, ref i, ref start, nonAscii, upper, eod, len)) return;
+                        break;
+                    case Kind.Han:
+                        if (start >= 0) { Emit(s[start..i], nonAscii, upper); start = -1; }
+                        Emit(s.Slice(i, len), true, false);
+                        i += len;
+                        break;
+                    default:
+                        if (start >= 0) { Emit(s[start..i], nonAscii, upper); start = -1; }
+                        i += len;
+                        break;
+                }
+                if (start >= 0 && i - start > MaxTokenBytes)
+                {
+                    Emit(s[start..i], nonAscii, upper);
+                    start = -1;
+                }
+            }
+            if (start >= 0)
+            {
+                if (eod || n - start > MaxTokenBytes) Emit(s[start..n], nonAscii, upper);
+                else Hold(s[start..n]);
+            }
+        }
+
+        /// <summary>Handles an apostrophe inside a token; false when the decision needs the next block.</summary>
+        private bool ApostropheStep(ReadOnlySpan<byte> s, ref int i, ref int start, bool nonAscii, bool upper, bool eod, int len)
+        {
+            int next = i + len;
+            if (next >= s.Length && !eod)
+            {
+                Hold(s[start..]);
+                return false;
+            }
+            if (next < s.Length && Rune.DecodeFromUtf8(s[next..], out Rune r, out _) == OperationStatus.Done &&
+                IsLetterOrDigit(r) && !IsHan(r.Value))
+            {
+                i = next;
+                return true;
+            }
+            Emit(s[start..i], nonAscii, upper);
+            start = -1;
+            i = next;
+            return true;
+        }
+
+        private void Hold(ReadOnlySpan<byte> tail)
+        {
+            if (_carry.Length < tail.Length) _carry = new byte[Math.Max(tail.Length, _carry.Length * 2)];
+            tail.CopyTo(_carry);
+            _carryLen = tail.Length;
+        }
+
+        private void Emit(ReadOnlySpan<byte> tok, bool nonAscii, bool upper)
+        {
+            if (!nonAscii)
+            {
+                if (keepCase || !upper) { sink.AddToken(tok); return; }
+                if (_bytes.Length < tok.Length) _bytes = new byte[tok.Length * 2];
+                for (int k = 0; k < tok.Length; k++)
+                {
+                    byte b = tok[k];
+                    _bytes[k] = (uint)(b - 'A') <= 'Z' - 'A' ? (byte)(b | 0x20) : b;
+                }
+                sink.AddToken(_bytes.AsSpan(0, tok.Length));
+                return;
+            }
+            EmitSlow(tok);
+        }
+
+        private void EmitSlow(ReadOnlySpan<byte> tok)
+        {
+            int maxChars = tok.Length + 1;
+            if (_chars.Length < maxChars) _chars = new char[maxChars * 2];
+            int nc = Encoding.UTF8.GetChars(tok, _chars);
+            ReadOnlySpan<char> text = _chars.AsSpan(0, nc);
+            if (!text.IsNormalized(NormalizationForm.FormC))
+            {
+                int need = text.GetNormalizedLength(NormalizationForm.FormC);
+                if (_chars2.Length < need) _chars2 = new char[need * 2];
+                text.TryNormalize(_chars2, out int written, NormalizationForm.FormC);
+                (_chars, _chars2) = (_chars2, _chars);
+                text = _chars.AsSpan(0, written);
+            }
+            if (!keepCase)
+            {
+                if (_chars2.Length < text.Length) _chars2 = new char[text.Length * 2];
+                int w = text.ToLowerInvariant(_chars2);
+                text = _chars2.AsSpan(0, w);
+            }
+            int maxBytes = Encoding.UTF8.GetMaxByteCount(text.Length);
+            if (_bytes.Length < maxBytes) _bytes = new byte[maxBytes];
+            int nb = Encoding.UTF8.GetBytes(text, _bytes);
+            sink.AddToken(_bytes.AsSpan(0, nb));
+        }
+    }
+}

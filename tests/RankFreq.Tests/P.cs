@@ -1,0 +1,1 @@
+public class P { [Xunit.Fact] public void T() => Xunit.Assert.True(true); }
