@@ -38,7 +38,7 @@ public static class CliApp
         var root = new RootCommand("RankFreq: rank-frequency (Zipf-type) analysis of text collections — exact counts, tail fits that hold up, reports.");
         root.Subcommands.Add(CountVerb.Build(stdout, stderr));
         root.Subcommands.Add(MergeVerb.Build(stdout, stderr));
-        // VERB:fit
+        root.Subcommands.Add(FitVerb.Build(stdout, stderr));
         // VERB:profile
         var tok = new Command("tokenizers", "List the tokenizer specs available.");
         tok.SetAction(_ =>
@@ -55,7 +55,7 @@ public static class CliApp
     {
         switch (e)
         {
-            case SourceException or TokenizerException or CountingException or StorageException:
+            case SourceException or TokenizerException or CountingException or StorageException or Fitting.FitInputException:
                 stderr.WriteLine($"rankfreq: error: {e.Message}");
                 return Error;
             case OperationCanceledException:

@@ -118,7 +118,7 @@ public static class InputReader
         {
             var field = reader.Schema.GetDataFields().FirstOrDefault(d => d.Name == options.TextColumn || d.Path.ToString() == options.TextColumn)
                 ?? throw new SourceException($"{f.Path}: no column '{options.TextColumn}' (columns: {string.Join(", ", reader.Schema.GetDataFields().Select(d => d.Name))}); use --text-column");
-            if (field.ClrType != typeof(string))
+            if (field.ClrType != typeof(string) && field.ClrType != typeof(ReadOnlyMemory<char>))
                 throw new SourceException($"{f.Path}: column '{field.Name}' holds {field.ClrType.Name}, not text");
             var bytes = new byte[4096];
             long lastPos = 0;

@@ -104,7 +104,7 @@ public static class CountTableFile
         var meta = CountTableMetadata.FromFooter(r.CustomMetadata, path);
         var df = r.Schema.GetDataFields();
         var count = df.FirstOrDefault(f => f.Name == "count" && f.ClrType == typeof(long));
-        var token = df.FirstOrDefault(f => f.Name == "token" && f.ClrType == typeof(string));
+        var token = df.FirstOrDefault(f => f.Name == "token" && (f.ClrType == typeof(string) || f.ClrType == typeof(ReadOnlyMemory<char>)));
         var id = df.FirstOrDefault(f => f.Name == "token_id" && f.ClrType == typeof(int));
         if (count is null || token is null) { await r.DisposeAsync(); throw new StorageException($"{path}: not a count table (needs columns token and count)"); }
         return new CountTableReader(path, r, meta, token, id, count);

@@ -1,0 +1,91 @@
+namespace RankFreq.Fitting;
+
+/// <summary>Value of ζ(s, q) with its first two derivatives in s.</summary>
+public readonly record struct ZetaValue(double Value, double D1, double D2);
+
+/// <summary>
+/// Hurwitz zeta ζ(s, q) = Σ_{k≥0} (q + k)^−s for s &gt; 1, q &gt; 0, and its first two derivatives in s.
+/// </summary>
+/// <remarks>
+/// Euler–Maclaurin summation (NIST DLMF §2.10 and §25.11): N direct terms bring the argument to a = q + N ≥ 12, then
+/// ζ(s, q) = Σ_{k&lt;N} (q+k)^−s + a^{1−s}/(s−1) + a^−s/2 + Σ_{j=1}^{12} B_{2j}/(2j)! · s(s+1)…(s+2j−2) · a^{−s−2j+1};
+/// derivatives in s are taken term by term. Tested against 50-digit mpmath values for s ∈ [1.05, 6], q ∈ [1, 10^6]
+/// (tests/RankFreq.Tests/Data/hurwitz-mpmath.csv): relative error ≤ 1e-12 for ζ and ∂ζ/∂s.
+/// </remarks>
+public static class HurwitzZeta
+{
+    private const double MinA = 12;
+    // B_{2j} / (2j)! for j = 1..12
+    private static readonly double[] BernoulliOverFactorial =
+    [
+        1.0 / 6 / 2,
+        -1.0 / 30 / 24,
+        1.0 / 42 / 720,
+        -1.0 / 30 / 40320,
+        5.0 / 66 / 3628800,
+        -691.0 / 2730 / 479001600,
+        7.0 / 6 / 87178291200,
+        -3617.0 / 510 / 20922789888000,
+        43867.0 / 798 / 6402373705728000,
+        -174611.0 / 330 / 2432902008176640000,
+        854513.0 / 138 / 1124000727777607680000.0,
+        -236364091.0 / 2730 / 620448401733239439360000.0,
+    ];
+
+    /// <summary>ζ(s, q).</summary>
+    public static double Value(double s, double q) => Evaluate(s, q, derivatives: false).Value;
+
+    /// <summary>ζ(s, q), ∂ζ/∂s and ∂²ζ/∂s² (the derivatives are 0 unless requested).</summary>
+    public static ZetaValue Evaluate(double s, double q, bool derivatives = true)
+    {
+        if (!(s > 1)) throw new ArgumentOutOfRangeException(nameof(s), s, "Hurwitz zeta needs s > 1");
+        if (!(q > 0)) throw new ArgumentOutOfRangeException(nameof(q), q, "Hurwitz zeta needs q > 0");
+        double z = 0, d1 = 0, d2 = 0;
+        double a = q;
+        while (a < MinA)
+        {
+            double t = Math.Pow(a, -s);
+            z += t;
+            if (derivatives)
+            {
+                double l = Math.Log(a);
+                d1 -= l * t;
+                d2 += l * l * t;
+            }
+            a += 1;
+        }
+        double la = Math.Log(a);
+        double apow = Math.Exp(-s * la);          // a^-s
+        double integral = apow * a / (s - 1);     // a^(1-s)/(s-1)
+        double half = 0.5 * apow;
+        z += integral + half;
+        if (derivatives)
+        {
+            double dl = -la - 1 / (s - 1);
+            d1 += integral * dl - la * half;
+            d2 += integral * (dl * dl + 1 / ((s - 1) * (s - 1))) + la * la * half;
+        }
+        double poch = s;                // s (s+1) ... (s+2j-2)
+        double pw = apow / a;           // a^(-s-2j+1)
+        double h1 = 1 / s, h2 = 1 / (s * s);
+        double inva2 = 1 / (a * a);
+        for (int j = 1; j <= BernoulliOverFactorial.Length; j++)
+        {
+            double term = BernoulliOverFactorial[j - 1] * poch * pw;
+            z += term;
+            if (derivatives)
+            {
+                double g = h1 - la;
+                d1 += term * g;
+                d2 += term * (g * g - h2);
+            }
+            double x1 = s + 2 * j - 1, x2 = s + 2 * j;
+            poch *= x1 * x2;
+            h1 += 1 / x1 + 1 / x2;
+            h2 += 1 / (x1 * x1) + 1 / (x2 * x2);
+            pw *= inva2;
+            if (Math.Abs(term) < 1e-17 * z) break;
+        }
+        return new ZetaValue(z, d1, d2);
+    }
+}
