@@ -38,23 +38,7 @@ internal static class CountVerb
     internal static CountTableMetadata Metadata(CountSummary s, long redactBelow) =>
         new(s.TokenizerSpec, s.Normalization, s.CaseRule, s.Tokens, s.Types, s.Inputs, CountTableMetadata.CurrentVersion, DateTime.UtcNow, redactBelow);
 
-    internal static Dictionary<string, object?> SummaryJson(CountSummary s) => new()
-    {
-        ["tokenizer"] = s.TokenizerSpec,
-        ["tokens"] = s.Tokens,
-        ["types"] = s.Types,
-        ["bytes"] = s.StoredBytes,
-        ["text_bytes"] = s.TextBytes,
-        ["replaced_bytes"] = s.ReplacedBytes,
-        ["records"] = s.Records,
-        ["malformed_records"] = s.MalformedRecords,
-        ["missing_field"] = s.MissingField,
-        ["skipped_files"] = s.SkippedFiles.Select(f => new Dictionary<string, string> { ["path"] = f.Path, ["reason"] = f.Reason }).ToList(),
-        ["files"] = s.Inputs.Count,
-        ["threads"] = s.Threads,
-        ["spilled_runs"] = s.SpilledRuns,
-        ["seconds"] = Math.Round(s.Seconds, 3),
-    };
+    internal static Dictionary<string, object?> SummaryJson(CountSummary s) => Reporting.SummaryFields.Count(s);
 
     internal static void WriteSummary(TextWriter o, CountSummary s, string path)
     {

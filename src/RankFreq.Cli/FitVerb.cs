@@ -74,46 +74,7 @@ internal static class FitVerb
         return cmd;
     }
 
-    internal static double? J(double x) => double.IsFinite(x) ? Math.Round(x, 10) : null;
-
-    internal static Dictionary<string, object?> FitJson(TailFitResult f) => new()
-    {
-        ["alpha"] = J(f.PowerLaw.Alpha),
-        ["alpha_se"] = J(f.PowerLaw.AlphaSe),
-        ["alpha_approx"] = J(f.PowerLaw.AlphaApprox),
-        ["alpha_sd"] = J(f.AlphaSd),
-        ["alpha_lo"] = J(f.AlphaLo),
-        ["alpha_hi"] = J(f.AlphaHi),
-        ["xmin"] = f.PowerLaw.Xmin,
-        ["xmin_lo"] = J(f.XminLo),
-        ["xmin_hi"] = J(f.XminHi),
-        ["n_tail"] = f.PowerLaw.NTail,
-        ["n_tail_sd"] = J(f.NTailSd),
-        ["n_types"] = f.NTypes,
-        ["ks_distance"] = J(f.PowerLaw.KsDistance),
-        ["gof_p"] = J(f.GofP),
-        ["gof_reps"] = f.GofReps,
-        ["ci_reps"] = f.CiReps,
-        ["zipf_s"] = J(f.ZipfS),
-        ["zipf_s_se"] = J(f.ZipfSSe),
-        ["lsq_slope"] = J(f.LsqSlope),
-        ["seed"] = f.Seed,
-        ["min_tail"] = f.Options.MinTail,
-        ["xmin_fixed"] = f.Options.Xmin > 0,
-        ["status"] = f.PowerLaw.Status == FitStatus.Ok ? "ok" : f.PowerLaw.Status.ToString(),
-        ["message"] = f.PowerLaw.Message,
-        ["seconds"] = Math.Round(f.Seconds, 3),
-        ["alternatives"] = f.Alternatives.Select(a => new Dictionary<string, object?>
-        {
-            ["name"] = a.Name,
-            ["parameters"] = a.Parameters.ToDictionary(kv => kv.Key, kv => J(kv.Value)),
-            ["llr"] = J(a.Llr),
-            ["normalized_llr"] = J(a.NormalizedLlr),
-            ["p"] = J(a.P),
-            ["favours"] = a.Favours,
-            ["status"] = a.Status == FitStatus.Ok ? "ok" : a.Status.ToString(),
-        }).ToList(),
-    };
+    internal static Dictionary<string, object?> FitJson(TailFitResult f) => Reporting.SummaryFields.Fit(f);
 }
 
 internal sealed class FitConsoleProgress(TextWriter err, bool quiet) : IProgress<FitProgress>
