@@ -26,6 +26,12 @@ public sealed record FrequencySpectrum(long[] Values, long[] Types)
         return new FrequencySpectrum(d.Keys.ToArray(), d.Values.ToArray());
     }
 
+    /// <summary>Equal when the (value, multiplicity) pairs are equal.</summary>
+    public bool Equals(FrequencySpectrum? other) => other is not null && Values.AsSpan().SequenceEqual(other.Values) && Types.AsSpan().SequenceEqual(other.Types);
+
+    /// <inheritdoc/>
+    public override int GetHashCode() => HashCode.Combine(Values.Length, TypeCount, TokenCount);
+
     /// <summary>Builds a spectrum from one count per type.</summary>
     public static FrequencySpectrum FromCounts(IEnumerable<long> counts) => FromPairs(counts.Select(c => (c, 1L)));
 }
@@ -127,6 +133,7 @@ public sealed class CountResult(CountSummary summary, ICountRows rows, Frequency
 /// <param name="ShardIndex">1-based shard to count, with <paramref name="ShardCount"/>; 0 counts everything.</param>
 /// <param name="ShardCount">Number of shards.</param>
 /// <param name="TempDirectory">Where spill runs go (default: the system temporary folder).</param>
+/// <param name="SplitAboveBytes">Plain text files larger than this are cut into newline-aligned ranges counted in parallel.</param>
 public sealed record CountSettings(
     string Tokenizer = "words",
     SourceOptions? Source = null,
@@ -134,7 +141,8 @@ public sealed record CountSettings(
     long MemoryBytes = 0,
     int ShardIndex = 0,
     int ShardCount = 0,
-    string? TempDirectory = null)
+    string? TempDirectory = null,
+    long SplitAboveBytes = 16L << 20)
 {
     /// <summary>Effective thread count.</summary>
     public int EffectiveThreads => Threads > 0 ? Threads : Environment.ProcessorCount;

@@ -58,14 +58,30 @@ public static class Decompression
 internal sealed class CountingStream(Stream inner) : Stream
 {
     public long BytesRead;
+    private readonly byte[] _last = new byte[8];
+
+    /// <summary>The last 8 bytes read (a gzip trailer: CRC-32 and size mod 2^32, little-endian).</summary>
+    public ReadOnlySpan<byte> LastBytes => _last;
+
+    private int Track(Span<byte> got)
+    {
+        if (got.Length >= 8) got[^8..].CopyTo(_last);
+        else if (got.Length > 0)
+        {
+            _last.AsSpan(got.Length).CopyTo(_last);
+            got.CopyTo(_last.AsSpan(8 - got.Length));
+        }
+        BytesRead += got.Length;
+        return got.Length;
+    }
     public override bool CanRead => true;
     public override bool CanSeek => false;
     public override bool CanWrite => false;
     public override long Length => inner.Length;
     public override long Position { get => BytesRead; set => throw new NotSupportedException(); }
     public override void Flush() { }
-    public override int Read(byte[] buffer, int offset, int count) { int n = inner.Read(buffer, offset, count); BytesRead += n; return n; }
-    public override int Read(Span<byte> buffer) { int n = inner.Read(buffer); BytesRead += n; return n; }
+    public override int Read(byte[] buffer, int offset, int count) => Read(buffer.AsSpan(offset, count));
+    public override int Read(Span<byte> buffer) { int n = inner.Read(buffer); return Track(buffer[..Math.Max(0, n)]); }
     public override long Seek(long offset, SeekOrigin origin) => throw new NotSupportedException();
     public override void SetLength(long value) => throw new NotSupportedException();
     public override void Write(byte[] buffer, int offset, int count) => throw new NotSupportedException();
@@ -76,11 +92,12 @@ internal sealed class CountingStream(Stream inner) : Stream
 internal sealed class PrefixStream(byte[] prefix, Stream rest) : Stream
 {
     private int _pos;
+    private long _total;
     public override bool CanRead => true;
     public override bool CanSeek => false;
     public override bool CanWrite => false;
     public override long Length => throw new NotSupportedException();
-    public override long Position { get => throw new NotSupportedException(); set => throw new NotSupportedException(); }
+    public override long Position { get => _total; set => throw new NotSupportedException(); }
     public override void Flush() { }
     public override int Read(byte[] buffer, int offset, int count) => Read(buffer.AsSpan(offset, count));
     public override int Read(Span<byte> buffer)
@@ -90,9 +107,12 @@ internal sealed class PrefixStream(byte[] prefix, Stream rest) : Stream
             int n = Math.Min(buffer.Length, prefix.Length - _pos);
             prefix.AsSpan(_pos, n).CopyTo(buffer);
             _pos += n;
+            _total += n;
             return n;
         }
-        return rest.Read(buffer);
+        int r = rest.Read(buffer);
+        _total += r;
+        return r;
     }
     public override long Seek(long offset, SeekOrigin origin) => throw new NotSupportedException();
     public override void SetLength(long value) => throw new NotSupportedException();

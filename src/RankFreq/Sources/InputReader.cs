@@ -53,6 +53,7 @@ public static class InputReader
 
         byte[] buf = ArrayPool<byte>.Shared.Rent(BlockBytes);
         long pos = start, reported = 0;
+        var crc = f.Compression == CompressionKind.Gzip ? new System.IO.Hashing.Crc32() : null;
         try
         {
             while (true)
@@ -75,6 +76,7 @@ public static class InputReader
                     if (nl >= 0) { block = block[..((int)from + nl + 1)]; last = true; }
                 }
                 pos += block.Length;
+                crc?.Append(block);
                 stats.TextBytes += block.Length;
                 sanitizer.Write(block, false);
                 long done = f.Compression == CompressionKind.None ? pos - unit.Start : counted.BytesRead;
@@ -82,11 +84,26 @@ public static class InputReader
                 reported = done;
                 if (last) break;
             }
+            if (crc is not null) CheckGzipTrailer(f.Path, counted, crc.GetCurrentHashAsUInt32(), pos);
             sanitizer.Write([], true);
             stats.ReplacedBytes += sanitizer.ReplacedBytes;
             stats.StoredBytes += f.Compression == CompressionKind.None ? pos - unit.Start : counted.BytesRead;
         }
         finally { ArrayPool<byte>.Shared.Return(buf); }
+    }
+
+    /// <summary>
+    /// .NET's gzip decoder ends quietly on a truncated file, so the trailer (RFC 1952 §2.3.1: CRC-32 and size mod 2^32
+    /// of the last member) is checked against the decompressed data. A multi-member file fails this check unless it is
+    /// the trivial one-member case; such files must be decompressed first (a known limitation).
+    /// </summary>
+    private static void CheckGzipTrailer(string path, CountingStream raw, uint crc, long size)
+    {
+        var t = raw.LastBytes;
+        uint tCrc = System.Buffers.Binary.BinaryPrimitives.ReadUInt32LittleEndian(t);
+        uint tSize = System.Buffers.Binary.BinaryPrimitives.ReadUInt32LittleEndian(t[4..]);
+        if (tCrc != crc || tSize != (uint)size)
+            throw new SourceException($"{path}: truncated or corrupt gzip data (the trailer's CRC-32/size do not match the {size} bytes decompressed; a file of several gzip members must be decompressed first)");
     }
 
     private static long SkipPartialLine(Stream s, long pos)

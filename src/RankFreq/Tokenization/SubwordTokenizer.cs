@@ -199,6 +199,7 @@ public sealed class SubwordTokenizer : ITokenizer
             if (st == System.Buffers.OperationStatus.Done)
             {
                 if (r.Value == '\\') sb.Append("\\\\");
+                else if (r.Value == 0xFFFD) sb.Append("\\xEF\\xBF\\xBD"); // a literal U+FFFD would read as a decoding failure
                 else sb.Append(r.ToString());
                 i += len;
             }

@@ -131,6 +131,7 @@ public sealed class WordTokenizer(bool keepCase) : ITokenizer
                         if (start < 0) { start = i; nonAscii = false; upper = false; }
                         upper |= c == 2;
                         i++;
+                        if (i - start >= MaxTokenBytes) { Emit(s[start..i], nonAscii, upper); start = -1; }
                         continue;
                     }
                     if (c == 3 && start >= 0)

@@ -1,0 +1,122 @@
+using System.Text.RegularExpressions;
+using RankFreq.Counting;
+using RankFreq.Storage;
+using Xunit;
+
+namespace RankFreq.Tests.Counting;
+
+public class CountingTests
+{
+    internal static List<(string? Token, long Count)> Rows(ICountRows rows) =>
+        rows.Batches().SelectMany(b => b.Tokens.Zip(b.Counts)).ToList();
+
+    [CorpusFact]
+    public void KjvCountsEqualAPlainRegexCount()
+    {
+        // Independent count, written in the plainest way: a regex for the words rule and a dictionary.
+        var path = Corpora.File("kjv-bible.txt");
+        var text = File.ReadAllText(path).Normalize();
+        var rx = new Regex(@"[\p{L}\p{M}\p{Nd}]+(?:['’](?=[\p{L}\p{Nd}])[\p{L}\p{M}\p{Nd}]+)*");
+        var expected = new Dictionary<string, long>();
+        foreach (Match m in rx.Matches(text))
+        {
+            var w = m.Value.ToLowerInvariant();
+            expected[w] = expected.GetValueOrDefault(w) + 1;
+        }
+        using var r = CountEngine.Count([path], new CountSettings(Threads: 2, SplitAboveBytes: 1 << 20)); // also exercises range splitting
+        var got = Rows(r.Rows).ToDictionary(p => p.Token!, p => p.Count);
+        Assert.Equal(expected.Count, got.Count);
+        Assert.Equal(expected.Values.Sum(), r.Summary.Tokens);
+        foreach (var (w, c) in expected) Assert.True(got.TryGetValue(w, out var g) && g == c, $"'{w}': expected {c}, got {g}");
+    }
+
+    [CorpusFact]
+    public void RangesThreadsAndSpillGiveTheSameTable()
+    {
+        var path = Corpora.File("kjv-bible.txt");
+        using var one = CountEngine.Count([path], new CountSettings(Threads: 1));
+        using var split = CountEngine.Count([path], new CountSettings(Threads: 2, SplitAboveBytes: 256 << 10));
+        using var d = new TempDir();
+        using var spilled = CountEngine.Count([path], new CountSettings(Threads: 2, MemoryBytes: 1 << 20, TempDirectory: d.Path));
+        Assert.True(spilled.Summary.SpilledRuns > 2, "the tiny budget should have spilled");
+        var a = Rows(one.Rows);
+        Assert.Equal(a, Rows(split.Rows));
+        Assert.Equal(a, Rows(spilled.Rows));
+        Assert.Equal(one.Spectrum, spilled.Spectrum with { });
+        Assert.Equal(one.Growth.Types, split.Growth.Types);   // corpus-order growth does not depend on the split
+        Assert.Equal(one.Growth.Types, spilled.Growth.Types);
+        spilled.Dispose();
+        Assert.Empty(Directory.GetFileSystemEntries(d.Path)); // spill runs removed
+    }
+
+    [Fact]
+    public void GrowthIsObservedInCorpusOrder()
+    {
+        using var d = new TempDir();
+        File.WriteAllText(d["a.txt"], "x y x z");
+        File.WriteAllText(d["b.txt"], "y w");
+        using var r = CountEngine.Count([d.Path], new CountSettings(Threads: 2));
+        var g = r.Growth.Tokens.Zip(r.Growth.Types).ToDictionary(p => p.First, p => p.Second);
+        Assert.Equal(1, g[1]); Assert.Equal(2, g[2]); Assert.Equal(3, g[4]); Assert.Equal(4, g[6]);
+    }
+
+    [Fact]
+    public async Task MergeIsAssociativeAndShardsAddUpToTheWhole()
+    {
+        using var d = new TempDir();
+        var rng = new Random(7);
+        var words = Enumerable.Range(0, 400).Select(i => "w" + i).ToArray();
+        for (int f = 0; f < 6; f++)
+            File.WriteAllText(d[$"in{f}.txt"], string.Join(' ', Enumerable.Range(0, 3000).Select(_ => words[(int)Math.Floor(Math.Pow(rng.NextDouble(), 3) * 400)])));
+        var inputs = Enumerable.Range(0, 6).Select(f => d[$"in{f}.txt"]).ToArray();
+        async Task<string> CountTo(string name, int k = 0, int n = 0, params string[] files)
+        {
+            using var r = CountEngine.Count(files, new CountSettings(ShardIndex: k, ShardCount: n));
+            var meta = new CountTableMetadata(r.Summary.TokenizerSpec, r.Summary.Normalization, r.Summary.CaseRule, r.Summary.Tokens, r.Summary.Types, r.Summary.Inputs, "t", DateTime.UtcNow, 0);
+            await CountTableFile.WriteAsync(d[name], r.Rows, false, meta);
+            return d[name];
+        }
+        var whole = await CountTo("whole.parquet", 0, 0, inputs);
+        var s1 = await CountTo("s1.parquet", 1, 3, inputs);
+        var s2 = await CountTo("s2.parquet", 2, 3, inputs);
+        var s3 = await CountTo("s3.parquet", 3, 3, inputs);
+        await TableMerge.MergeAsync([s1, s2], d["s12.parquet"]);
+        await TableMerge.MergeAsync([d["s12.parquet"], s3], d["left.parquet"]);
+        await TableMerge.MergeAsync([s2, s3], d["s23.parquet"], memoryBytes: 4096, tempDir: d.Path); // spilling merge
+        await TableMerge.MergeAsync([s1, d["s23.parquet"]], d["right.parquet"]);
+        async Task<List<(string?, long)>> Read(string p) { await using var r = await CountTableFile.OpenAsync(p); return Rows(r); }
+        var w = await Read(whole);
+        Assert.Equal(w, await Read(d["left.parquet"]));
+        Assert.Equal(w, await Read(d["right.parquet"]));
+    }
+
+    [Fact]
+    public async Task MergeRefusesDifferentTokenizers()
+    {
+        using var d = new TempDir();
+        File.WriteAllText(d["a.txt"], "Alpha beta");
+        foreach (var (name, tok) in new[] { ("w.parquet", "words"), ("k.parquet", "words:keep-case") })
+        {
+            using var r = CountEngine.Count([d["a.txt"]], new CountSettings(tok));
+            var s = r.Summary;
+            await CountTableFile.WriteAsync(d[name], r.Rows, false, new CountTableMetadata(s.TokenizerSpec, s.Normalization, s.CaseRule, s.Tokens, s.Types, s.Inputs, "t", DateTime.UtcNow, 0));
+        }
+        var e = await Assert.ThrowsAsync<StorageException>(() => TableMerge.MergeAsync([d["w.parquet"], d["k.parquet"]], d["m.parquet"]));
+        Assert.Contains("k.parquet", e.Message);
+        Assert.False(File.Exists(d["m.parquet"]));
+    }
+
+    [CorpusFact]
+    public async Task RedactionKeepsTheSpectrumAndHidesRareStrings()
+    {
+        using var d = new TempDir();
+        using var r = CountEngine.Count([Corpora.File("kjv-bible.txt")], new CountSettings());
+        var s = r.Summary;
+        await CountTableFile.WriteAsync(d["red.parquet"], r.Rows, false, new CountTableMetadata(s.TokenizerSpec, s.Normalization, s.CaseRule, s.Tokens, s.Types, s.Inputs, "t", DateTime.UtcNow, 5));
+        await using var t = await CountTableFile.OpenAsync(d["red.parquet"]);
+        Assert.Equal(r.Spectrum, t.ReadSpectrum() with { });
+        var rows = Rows(t);
+        Assert.All(rows.Where(x => x.Count < 5), x => Assert.Null(x.Token));
+        Assert.All(rows.Where(x => x.Count >= 5), x => Assert.NotNull(x.Token));
+    }
+}

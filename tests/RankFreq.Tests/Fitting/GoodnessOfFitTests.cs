@@ -1,0 +1,89 @@
+using RankFreq.Counting;
+using RankFreq.Fitting;
+using Xunit;
+
+namespace RankFreq.Tests.Fitting;
+
+public class GoodnessOfFitTests
+{
+    private static FrequencySpectrum Geometric(ulong seed, int n, double q)
+    {
+        var rng = new Xoshiro(seed);
+        return FrequencySpectrum.FromCounts(Enumerable.Range(0, n).Select(_ => 1 + (long)Math.Floor(Math.Log(rng.NextOpen()) / Math.Log(q))));
+    }
+
+    private static FrequencySpectrum Lognormal(ulong seed, int n, double mu, double sigma)
+    {
+        var rng = new Xoshiro(seed);
+        return FrequencySpectrum.FromCounts(Enumerable.Range(0, n).Select(_ => 1 + (long)Math.Floor(Math.Exp(mu + sigma * rng.NextNormal()))));
+    }
+
+    private static FrequencySpectrum PowerLaw(ulong seed, int n, double alpha, long xmin)
+    {
+        var buf = new SpectrumBuffer();
+        Synthetic.PowerLawTail(new Xoshiro(seed), alpha, xmin, n, buf);
+        return new FrequencySpectrum(buf.Values[..buf.Count], buf.Mult[..buf.Count]);
+    }
+
+    [Fact]
+    public void RejectsGeometricData()
+    {
+        var f = TailFitter.Fit(Geometric(1, 5000, 0.9), new FitOptions(Reps: 200, CiReps: 0, Seed: 2));
+        Assert.True(f.GofP < 0.1, $"p = {f.GofP}");
+    }
+
+    [Fact]
+    public void RejectsLognormalDataWithEnoughPoints()
+    {
+        var f = TailFitter.Fit(Lognormal(3, 200_000, 3, 0.6), new FitOptions(Reps: 200, CiReps: 0, Seed: 2));
+        Assert.True(f.GofP < 0.1, $"p = {f.GofP}");
+    }
+
+    [Fact]
+    public void RarelyRejectsTruePowerLaws()
+    {
+        int rejected = 0;
+        const int repeats = 40;
+        for (int r = 0; r < repeats; r++)
+        {
+            var f = TailFitter.Fit(PowerLaw((ulong)(500 + r), 2000, 2.5, 1), new FitOptions(Reps: 100, CiReps: 0, Seed: (ulong)r, Alternatives: []));
+            if (f.GofP < 0.1) rejected++;
+        }
+        Assert.True(rejected <= 0.15 * repeats, $"{rejected} of {repeats} rejected at p < 0.1");
+    }
+
+    [Fact]
+    public void LikelihoodRatiosFavourTheGeneratingFamily()
+    {
+        var ln = TailFitter.Fit(Lognormal(8, 50_000, 2, 1.2), new FitOptions(Xmin: 1, Reps: 0, CiReps: 0));
+        Assert.Equal("lognormal", ln.Alternatives.Single(a => a.Name == "lognormal").Favours);
+
+        var pl = TailFitter.Fit(PowerLaw(9, 20_000, 2.0, 1), new FitOptions(Xmin: 1, Reps: 0, CiReps: 0));
+        Assert.Equal("power_law", pl.Alternatives.Single(a => a.Name == "exponential").Favours);
+        Assert.NotEqual("stretched_exponential", pl.Alternatives.Single(a => a.Name == "stretched_exponential").Favours);
+
+        var ex = TailFitter.Fit(Geometric(10, 20_000, 0.7), new FitOptions(Xmin: 1, Reps: 0, CiReps: 0));
+        Assert.Equal("exponential", ex.Alternatives.Single(a => a.Name == "exponential").Favours);
+        Assert.True(ex.Alternatives.Single(a => a.Name == "exponential").Llr < 0);
+
+        // power law with an exponential cut-off: the nested test prefers the cut-off
+        var rng = new Xoshiro(12);
+        var counts = new List<long>();
+        while (counts.Count < 20_000) { long x = Samplers.PowerLaw(rng, 1.7, 1); if (rng.NextDouble() < Math.Exp(-0.01 * x)) counts.Add(x); }
+        var co = TailFitter.Fit(FrequencySpectrum.FromCounts(counts), new FitOptions(Xmin: 1, Reps: 0, CiReps: 0));
+        Assert.Equal("power_law_cutoff", co.Alternatives.Single(a => a.Name == "power_law_cutoff").Favours);
+    }
+
+    [CorpusTheory]
+    [InlineData("kjv-bible.txt")]
+    [InlineData("reina-valera-1909.txt")]
+    public void BibleWordTailsHaveZipfLikeExponents(string file)
+    {
+        // Zipf's rank exponent near 1 for word frequencies (α near 2) is common practice, no single source.
+        using var r = CountEngine.Count([Corpora.File(file)], new CountSettings());
+        var f = TailFitter.Fit(r.Spectrum, new FitOptions(Reps: 0, CiReps: 0));
+        Assert.Equal(FitStatus.Ok, f.PowerLaw.Status);
+        Assert.InRange(f.PowerLaw.Alpha, 1.7, 2.1);
+        Assert.True(f.LsqSlope < 0);
+    }
+}

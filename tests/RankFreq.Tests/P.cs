@@ -1,1 +1,0 @@
-public class P { [Xunit.Fact] public void T() => Xunit.Assert.True(true); }

@@ -1,0 +1,170 @@
+using System.IO.Compression;
+using System.Text;
+using RankFreq.Counting;
+using RankFreq.Sources;
+using Xunit;
+
+namespace RankFreq.Tests.Sources;
+
+public class SourceTests
+{
+    private const string Sample = "The harbour light, the harbour wall; a gull, two gulls — three gulls!\nNorthwest 5 later.\n";
+
+    private static CountResult Count(params string[] inputs) => CountEngine.Count(inputs, new CountSettings(Threads: 2));
+
+    private static Dictionary<string, long> Table(CountResult r)
+    {
+        var rows = (InMemoryRows)r.Rows;
+        return rows.Tokens.Select((t, i) => (t!, rows.Counts[i])).ToDictionary(p => p.Item1, p => p.Item2);
+    }
+
+    private static string Repeat(int n) => string.Concat(Enumerable.Repeat(Sample, n));
+
+    [Theory]
+    [InlineData("gzip")]
+    [InlineData("zstd")]
+    [InlineData("bzip2")]
+    [InlineData("xz")]
+    public void EveryCompressionGivesThePlainCounts(string kind)
+    {
+        using var d = new TempDir();
+        var text = Repeat(3000);
+        File.WriteAllText(d["plain.txt"], text);
+        // compressed with the system tools where present (an independent encoder), else with the libraries
+        string packed = d["packed.bin"]; // no telling extension: detection is by magic bytes
+        var tool = kind switch { "gzip" => "gzip", "zstd" => "zstd", "bzip2" => "bzip2", _ => "xz" };
+        if (!RunTool(tool, d["plain.txt"], packed))
+        {
+            Assert.True(kind != "xz", "xz is needed to make the xz sample (Debian package xz-utils)");
+            using var o = File.Create(packed);
+            using Stream c = kind switch
+            {
+                "gzip" => new GZipStream(o, CompressionLevel.Fastest),
+                "zstd" => new ZstdSharp.CompressionStream(o),
+                _ => SharpCompress.Compressors.BZip2.BZip2Stream.Create(o, SharpCompress.Compressors.CompressionMode.Compress, false, false),
+            };
+            c.Write(Encoding.UTF8.GetBytes(text));
+        }
+        using var a = Count(d["plain.txt"]);
+        using var b = Count(packed);
+        Assert.Equal(Table(a), Table(b));
+        Assert.Equal(6000, Table(b)["harbour"]);
+    }
+
+    private static bool RunTool(string tool, string input, string output)
+    {
+        try
+        {
+            var psi = new System.Diagnostics.ProcessStartInfo(tool, ["-c", input]) { RedirectStandardOutput = true, UseShellExecute = false };
+            using var p = System.Diagnostics.Process.Start(psi)!;
+            using (var o = File.Create(output)) p.StandardOutput.BaseStream.CopyTo(o);
+            p.WaitForExit();
+            return p.ExitCode == 0;
+        }
+        catch (System.ComponentModel.Win32Exception) { return false; }
+    }
+
+    [Theory]
+    [InlineData("gzip")]
+    [InlineData("zstd")]
+    [InlineData("bzip2")]
+    public void TruncatedOrCorruptArchiveIsAnErrorNamingTheFile(string kind)
+    {
+        using var d = new TempDir();
+        var raw = Encoding.UTF8.GetBytes(Repeat(20000));
+        var ms = new MemoryStream();
+        using (Stream c = kind switch
+        {
+            "gzip" => new GZipStream(ms, CompressionLevel.Fastest, leaveOpen: true),
+            "zstd" => new ZstdSharp.CompressionStream(ms, leaveOpen: true),
+            _ => SharpCompress.Compressors.BZip2.BZip2Stream.Create(ms, SharpCompress.Compressors.CompressionMode.Compress, false, true),
+        }) c.Write(raw);
+        var packed = ms.ToArray();
+        string path = d["broken.txt." + kind];
+        File.WriteAllBytes(path, packed[..(packed.Length / 2)]);
+        var e = Assert.ThrowsAny<Exception>(() => Count(path));
+        Assert.True(e is SourceException, $"{e.GetType().Name}: {e.Message}");
+        Assert.Contains(path, e.Message);
+    }
+
+    [Fact]
+    public void JsonLinesNestedFieldMalformedAndStrict()
+    {
+        using var d = new TempDir();
+        File.WriteAllLines(d["a.jsonl"], [
+            "{\"meta\":{\"body\":\"one two two\"},\"set\":\"x\"}",
+            "{\"meta\":{\"body\":\"three \\u0074wo\"}}",
+            "{not json",
+            "{\"meta\":{\"other\":1}}",
+            "",
+            "{\"meta\":{\"body\":42}}",
+        ]);
+        var opts = new SourceOptions(TextField: "meta.body");
+        using var r = CountEngine.Count([d["a.jsonl"]], new CountSettings(Source: opts));
+        Assert.Equal(5, r.Summary.Tokens);
+        Assert.Equal(3, Table(r)["two"]);
+        Assert.Equal(1, r.Summary.MalformedRecords);
+        Assert.Equal(2, r.Summary.MissingField);
+        var e = Assert.Throws<SourceException>(() => CountEngine.Count([d["a.jsonl"]], new CountSettings(Source: opts with { Strict = true })));
+        Assert.Contains("a.jsonl:3", e.Message);
+    }
+
+    [Fact]
+    public void OverlongRecordIsAnErrorWithItsLine()
+    {
+        using var d = new TempDir();
+        File.WriteAllText(d["big.jsonl"], "{\"text\":\"ok\"}\n{\"text\":\"" + new string('a', 5000) + "\"}\n");
+        var e = Assert.Throws<SourceException>(() => CountEngine.Count([d["big.jsonl"]], new CountSettings(Source: new SourceOptions(MaxRecordBytes: 1000))));
+        Assert.Contains("big.jsonl:2", e.Message);
+    }
+
+    [Fact]
+    public async Task ParquetTextColumn()
+    {
+        using var d = new TempDir();
+        var f = new Parquet.Schema.DataField<string>("body");
+        await using (var fs = File.Create(d["t.parquet"]))
+        await using (var w = await Parquet.ParquetWriter.CreateAsync(new Parquet.Schema.ParquetSchema(f), fs))
+        {
+            using var rg = w.CreateRowGroup();
+            await rg.WriteAsync(f, new[] { "red red blue", "green", "blue" });
+        }
+        using var r = CountEngine.Count([d["t.parquet"]], new CountSettings(Source: new SourceOptions(TextColumn: "body")));
+        Assert.Equal(new Dictionary<string, long> { ["red"] = 2, ["blue"] = 2, ["green"] = 1 }, Table(r));
+        Assert.Throws<SourceException>(() => CountEngine.Count([d["t.parquet"]], new CountSettings()));
+    }
+
+    [Fact]
+    public void InvalidUtf8IsReplacedAndCountedBomSkippedBinarySkipped()
+    {
+        using var d = new TempDir();
+        File.WriteAllBytes(d["bad.txt"], [0xEF, 0xBB, 0xBF, (byte)'a', (byte)'b', 0xFF, 0xFE, (byte)' ', (byte)'c', 0xC3]);
+        File.WriteAllBytes(d["bin.dat"], [1, 2, 0, 3, (byte)'x']);
+        using var r = CountEngine.Count([d.Path], new CountSettings());
+        Assert.Equal(3, r.Summary.ReplacedBytes);  // FF, FE and the dangling C3
+        Assert.Equal(new Dictionary<string, long> { ["ab"] = 1, ["c"] = 1 }, Table(r));
+        Assert.Single(r.Summary.SkippedFiles);
+        Assert.EndsWith("bin.dat", r.Summary.SkippedFiles[0].Path);
+    }
+
+    [Fact]
+    public void EmptyCorpusAndMissingInputAreErrors()
+    {
+        using var d = new TempDir();
+        File.WriteAllText(d["empty.txt"], " ... ,, ");
+        Assert.Contains("no tokens found", Assert.Throws<CountingException>(() => Count(d["empty.txt"])).Message);
+        Assert.Contains("nope.txt", Assert.Throws<SourceException>(() => Count(d["nope.txt"])).Message);
+    }
+
+    [Fact]
+    public void IncludeAndExcludeGlobs()
+    {
+        using var d = new TempDir();
+        Directory.CreateDirectory(d["sub"]);
+        File.WriteAllText(d["sub/a.txt"], "alpha");
+        File.WriteAllText(d["sub/b.md"], "beta");
+        File.WriteAllText(d["c.txt"], "gamma");
+        using var r = CountEngine.Count([d.Path], new CountSettings(Source: new SourceOptions(Include: ["**/*.txt"], Exclude: ["sub/**"])));
+        Assert.Equal(["gamma"], Table(r).Keys);
+    }
+}

@@ -1,0 +1,94 @@
+using System.Text;
+using RankFreq.Counting;
+using RankFreq.Tokenization;
+using Xunit;
+
+namespace RankFreq.Tests.Tokenization;
+
+public class SubwordTokenizerTests
+{
+    private static List<int> ViaSession(SubwordTokenizer tok, string text, int block = 1 << 30)
+    {
+        var sink = new ListSink();
+        var s = tok.CreateSession(sink);
+        var bytes = Encoding.UTF8.GetBytes(text);
+        for (int pos = 0; pos < bytes.Length; pos += block)
+        {
+            int n = Math.Min(block, bytes.Length - pos);
+            // blocks must end on a character boundary, as the sanitizer guarantees
+            while (pos + n < bytes.Length && (bytes[pos + n] & 0xC0) == 0x80) n++;
+            s.Feed(bytes.AsSpan(pos, n), false);
+            pos += n - block;
+        }
+        s.Feed([], true);
+        return sink.Ids;
+    }
+
+    [Fact]
+    public void Cl100kMatchesPublishedExample()
+    {
+        // OpenAI cookbook "How to count tokens with tiktoken": "tiktoken is great!" → cl100k_base ids
+        // [83, 1609, 5963, 374, 2294, 0] (6 tokens). Value recalled from memory of that page.
+        var tok = SubwordTokenizer.Tiktoken("cl100k_base");
+        Assert.Equal([83, 1609, 5963, 374, 2294, 0], ViaSession(tok, "tiktoken is great!"));
+        Assert.Equal("tiktoken is great!", tok.Encoder.Decode([83, 1609, 5963, 374, 2294, 0]));
+    }
+
+    [Fact]
+    public void HelloWorldIds()
+    {
+        // "hello world" → cl100k_base [15339, 1917]; r50k_base (GPT-2) [31373, 995]. Recalled from memory of the
+        // tiktoken and GPT-2 documentation examples.
+        Assert.Equal([15339, 1917], ViaSession(SubwordTokenizer.Tiktoken("cl100k_base"), "hello world"));
+        Assert.Equal([31373, 995], ViaSession(SubwordTokenizer.Tiktoken("r50k_base"), "hello world"));
+    }
+
+    [Fact]
+    public void SpecialTokenTextIsOrdinaryText()
+    {
+        var tok = SubwordTokenizer.Tiktoken("cl100k_base");
+        var ids = ViaSession(tok, "end <|endoftext|> start");
+        Assert.DoesNotContain(100257, ids); // the special id of <|endoftext|> in cl100k_base
+        Assert.True(ids.Count > 4);
+    }
+
+    [Fact]
+    public void ByteFragmentsAreShownEscapedNeverAsReplacementChar()
+    {
+        var tok = SubwordTokenizer.Tiktoken("o200k_base");
+        var shown = Enumerable.Range(0, tok.VocabularySize).Select(tok.DisplayToken).ToList();
+        Assert.DoesNotContain(shown, s => s.Contains('\uFFFD'));
+        Assert.Contains(shown, s => s.Contains("\\x"));
+        Assert.Equal(shown.Count, shown.Distinct(StringComparer.Ordinal).Count()); // a unique readable form per id
+    }
+
+    [CorpusTheory]
+    [InlineData("o200k_base")]
+    [InlineData("cl100k_base")]
+    [InlineData("r50k_base")]
+    public void ChunkCacheEqualsWholeTextEncodingOnRealText(string encoding)
+    {
+        // the first 1.5 MB of the KJV Bible ($RANKFREQ_CORPORA/kjv-bible.txt), fed in 64 KiB blocks so the
+        // memory cut points are exercised: identical ids in identical order to encoding the whole text at once
+        var text = File.ReadAllText(Corpora.File("kjv-bible.txt"))[..1_500_000];
+        var tok = SubwordTokenizer.Tiktoken(encoding);
+        var whole = tok.EncodeWhole(text);
+        var cached = ViaSession(tok, text, 64 * 1024);
+        Assert.Equal(whole.Count, cached.Count);
+        Assert.True(whole.SequenceEqual(cached));
+    }
+
+    [CorpusFact]
+    public void CountEngineTotalsMatchEncodeToIds()
+    {
+        var path = Corpora.File("reina-valera-1909.txt");
+        using var r = CountEngine.Count([path], new CountSettings("o200k_base", Threads: 2));
+        var ids = SubwordTokenizer.Tiktoken("o200k_base").EncodeWhole(File.ReadAllText(path));
+        Assert.Equal(ids.Count, r.Summary.Tokens);
+        Assert.Equal(ids.Distinct().Count(), r.Summary.Types);
+        var rows = (InMemoryRows)r.Rows;
+        var top = ids.GroupBy(i => i).OrderByDescending(g => g.Count()).First();
+        Assert.Equal(top.Key, rows.TokenIds![0]);
+        Assert.Equal(top.Count(), rows.Counts[0]);
+    }
+}

