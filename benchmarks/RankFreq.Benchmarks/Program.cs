@@ -1,1 +1,145 @@
-System.Console.WriteLine();
+using System.Diagnostics;
+using BenchmarkDotNet.Attributes;
+using BenchmarkDotNet.Running;
+using RankFreq.Counting;
+using RankFreq.Fitting;
+using RankFreq.Tokenization;
+
+// Usage:
+//   dotnet run -c Release --project benchmarks/RankFreq.Benchmarks -- replicate   spectrum-level vs per-type replicate, one run
+//   dotnet run -c Release --project benchmarks/RankFreq.Benchmarks -- make-spectrum FILE   10^6 types, α = 2, xmin = 1
+//   dotnet run -c Release --project benchmarks/RankFreq.Benchmarks -- bdn [filters]  BenchmarkDotNet kernels
+if (args.Length > 0 && args[0] == "replicate") { ReplicateComparison.Run(); return; }
+if (args.Length > 1 && args[0] == "encode-whole")
+{
+    // the baseline for the chunk cache: EncodeToIds over the whole text, per 1 MB line-aligned piece (same cut rule)
+    var tok = SubwordTokenizer.Tiktoken("o200k_base");
+    var text = File.ReadAllText(args[1]);
+    var sw0 = Stopwatch.StartNew();
+    long total = tok.EncodeWhole(text).Count;
+    Console.WriteLine($"o200k_base EncodeToIds over the whole text: {sw0.Elapsed.TotalSeconds:F2} s, {total:N0} tokens");
+    return;
+}
+if (args.Length > 1 && args[0] == "make-spectrum") { ReplicateComparison.WriteSpectrum(args[1]); return; }
+BenchmarkSwitcher.FromAssembly(typeof(Kernels).Assembly).Run(args.Skip(1).ToArray());
+
+/// <summary>Kernels timed by BenchmarkDotNet.</summary>
+[ShortRunJob]
+[MemoryDiagnoser]
+public class Kernels
+{
+    private byte[] _text = [];
+    private FrequencySpectrum _spec = null!;
+
+    [GlobalSetup]
+    public void Setup()
+    {
+        var rng = new Random(1);
+        var words = Enumerable.Range(0, 5000).Select(i => (i % 7 == 0 ? "Ünï" : "word") + i).ToArray();
+        _text = System.Text.Encoding.UTF8.GetBytes(string.Join(' ', Enumerable.Range(0, 400_000).Select(_ => words[(int)(Math.Pow(rng.NextDouble(), 3) * 5000)])));
+        _spec = ReplicateComparison.Spectrum(200_000);
+    }
+
+    [Benchmark(Description = "words tokenizer + table, 1 thread (per MB of text)")]
+    public int WordsCount()
+    {
+        var t = new TokenTable();
+        var sink = new TableSink(t);
+        new WordTokenizer(false).CreateSession(sink).Feed(_text, true);
+        return t.Count;
+    }
+
+    [Benchmark(Description = "Hurwitz zeta with two derivatives")]
+    public double Zeta() => HurwitzZeta.Evaluate(2.1, 37).D2;
+
+    [Benchmark(Description = "full xmin search, 2·10^5 types")]
+    public double Search() => new TailSearch(_spec.Values, _spec.Types, _spec.Values.Length).Search(50).Alpha;
+
+    private sealed class TableSink(TokenTable t) : ITokenSink
+    {
+        public void AddToken(ReadOnlySpan<byte> utf8) => t.Add(utf8, 1, 0);
+        public void AddId(int id) { }
+    }
+}
+
+/// <summary>One goodness-of-fit replicate done two ways on the same 10^6-type power law: as a spectrum, and per type.</summary>
+public static class ReplicateComparison
+{
+    public static FrequencySpectrum Spectrum(long n, ulong seed = 1)
+    {
+        var buf = new SpectrumBuffer();
+        Synthetic.PowerLawTail(new Xoshiro(seed), 2.0, 1, n, buf);
+        return new FrequencySpectrum(buf.Values[..buf.Count], buf.Mult[..buf.Count]);
+    }
+
+    public static void WriteSpectrum(string path)
+    {
+        var s = Spectrum(1_000_000);
+        File.WriteAllLines(path, s.Values.Zip(s.Types, (v, m) => $"{v},{m}"));
+        Console.WriteLine($"{path}: {s.TypeCount:N0} types, {s.Values.Length:N0} distinct values");
+    }
+
+    public static void Run()
+    {
+        var s = Spectrum(1_000_000);
+        var fit = new TailSearch(s.Values, s.Types, s.Values.Length).Search(50);
+        Console.WriteLine($"data: {s.TypeCount:N0} types, {s.Values.Length:N0} distinct values, fit α = {fit.Alpha:F4}, xmin = {fit.Xmin}");
+        // spectrum-level: the replicate the fitter runs
+        var buf = new SpectrumBuffer();
+        int reps = 200;
+        var sw = Stopwatch.StartNew();
+        for (int r = 0; r < reps; r++)
+        {
+            var rng = new Xoshiro(7, 1, (ulong)r);
+            buf.Clear();
+            Synthetic.PowerLawTail(rng, fit.Alpha, fit.Xmin, s.TypeCount, buf);
+            new TailSearch(buf.Values, buf.Mult, buf.Count).Search(50);
+        }
+        double spectrumMs = sw.Elapsed.TotalMilliseconds / reps;
+        // per type: one sampled value per type, sorted array, each candidate's MLE and KS over the sorted values
+        sw.Restart();
+        int naiveReps = 1;
+        for (int r = 0; r < naiveReps; r++) NaiveReplicate(new Xoshiro(7, 1, (ulong)r), fit.Alpha, fit.Xmin, s.TypeCount);
+        double naiveMs = sw.Elapsed.TotalMilliseconds / naiveReps;
+        Console.WriteLine($"spectrum-level replicate: {spectrumMs:F3} ms (mean of {reps})");
+        Console.WriteLine($"per-type replicate:       {naiveMs:F1} ms (mean of {naiveReps})");
+        Console.WriteLine($"ratio: {naiveMs / spectrumMs:F0}x");
+    }
+
+    /// <summary>The straightforward procedure: an array of one value per type, sorted; for every distinct candidate
+    /// xmin, the MLE by Newton on sums over the tail values, and the KS distance over the sorted tail.</summary>
+    private static double NaiveReplicate(Xoshiro rng, double alpha, long xmin, long n)
+    {
+        var x = new long[n];
+        for (long i = 0; i < n; i++) x[i] = Samplers.PowerLaw(rng, alpha, xmin);
+        Array.Sort(x);
+        double best = double.PositiveInfinity;
+        int start = 0;
+        while (start < n - 50)
+        {
+            long c = x[start];
+            double sumLn = 0;
+            for (long i = start; i < n; i++) sumLn += Math.Log(x[i]);
+            long nt = n - start;
+            double a = 2;
+            for (int it = 0; it < 50; it++)
+            {
+                var z = HurwitzZeta.Evaluate(a, c);
+                double r1 = z.D1 / z.Value, score = -sumLn / nt - r1, info = z.D2 / z.Value - r1 * r1;
+                double next = Math.Max(1.0001, a + score / info);
+                if (Math.Abs(next - a) < 1e-10) { a = next; break; }
+                a = next;
+            }
+            double z0 = HurwitzZeta.Value(a, c), d = 0;
+            for (long i = start; i < n; i++)
+            {
+                if (i + 1 < n && x[i + 1] == x[i]) continue;
+                double emp = (i - start + 1) / (double)nt, model = 1 - HurwitzZeta.Value(a, x[i] + 1) / z0;
+                d = Math.Max(d, Math.Abs(emp - model));
+            }
+            best = Math.Min(best, d);
+            while (start < n && x[start] == c) start++;
+        }
+        return best;
+    }
+}
