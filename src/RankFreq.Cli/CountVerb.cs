@@ -24,7 +24,7 @@ internal static class CountVerb
                 using var result = await Task.Run(() => CountEngine.Count(pr.GetValue(common.Inputs)!, settings, progress, ct), ct);
                 progress.Done();
                 var s = result.Summary;
-                await CountTableFile.WriteAsync(pr.GetValue(output)!, result.Rows, result.HasTokenIds, Metadata(s, pr.GetValue(common.RedactBelow)), ct);
+                await CountTableFile.WriteAsync(pr.GetValue(output)!, result.Rows, result.HasTokenIds, CountTableMetadata.From(s, pr.GetValue(common.RedactBelow)), ct);
                 foreach (var sk in s.SkippedFiles) stderr.WriteLine($"rankfreq: warning: skipped {sk.Path}: {sk.Reason}");
                 if (json) stdout.WriteLine(JsonSerializer.Serialize(SummaryJson(s), JsonOut.Options));
                 else if (!quiet) WriteSummary(stdout, s, pr.GetValue(output)!);
@@ -34,9 +34,6 @@ internal static class CountVerb
         });
         return cmd;
     }
-
-    internal static CountTableMetadata Metadata(CountSummary s, long redactBelow) =>
-        new(s.TokenizerSpec, s.Normalization, s.CaseRule, s.Tokens, s.Types, s.Inputs, CountTableMetadata.CurrentVersion, DateTime.UtcNow, redactBelow);
 
     internal static Dictionary<string, object?> SummaryJson(CountSummary s) => Reporting.SummaryFields.Count(s);
 

@@ -17,7 +17,7 @@ internal sealed class FitCliOptions(int defaultReps)
     public readonly Option<ulong> Seed = new("--seed") { Description = "Seed of every random draw", DefaultValueFactory = _ => 1UL };
     public readonly Option<string> Alternatives = new("--alternatives") { Description = "Families to compare with: all, none, or a list of lognormal,exponential,stretched_exponential,power_law_cutoff", DefaultValueFactory = _ => "all" };
 
-    public void AddTo(Command c, bool withThreads)
+    public void AddTo(Command c)
     {
         foreach (var o in new Option[] { MinTail, Xmin, Reps, CiReps, Seed, Alternatives }) c.Options.Add(o);
     }
@@ -53,7 +53,7 @@ internal static class FitVerb
         var quiet = new Option<bool>("--quiet", "-q") { Description = "No progress or summary" };
         var output = new Option<string?>("--out", "-o") { Description = "Write the fit table (and X.alternatives.parquet beside it)" };
         var cmd = new Command("fit", "Fit the tail of a count table or count list: discrete power-law MLE, xmin, goodness of fit, alternatives.") { input };
-        fo.AddTo(cmd, true);
+        fo.AddTo(cmd);
         foreach (var o in new Option[] { threads, json, quiet, output }) cmd.Options.Add(o);
         cmd.SetAction(async (pr, ct) =>
         {

@@ -14,7 +14,7 @@ internal static class ProfileVerb
         var title = new Option<string?>("--title") { Description = "Title of the report (default: the input name)" };
         var cmd = new Command("profile", "The main job: count, fit the tail, compare alternatives, vocabulary growth and richness, plots and an HTML report.");
         common.AddTo(cmd);
-        fo.AddTo(cmd, false);
+        fo.AddTo(cmd);
         cmd.Options.Add(output);
         cmd.Options.Add(title);
         cmd.SetAction(async (pr, ct) =>

@@ -31,8 +31,7 @@ public static class ProfileJob
         catch (Exception e) when (e is IOException or UnauthorizedAccessException) { throw new StorageException($"{dir}: cannot create the output folder ({e.Message})", e); }
 
         var sum = counted.Summary;
-        var meta = new CountTableMetadata(sum.TokenizerSpec, sum.Normalization, sum.CaseRule, sum.Tokens, sum.Types, sum.Inputs,
-            CountTableMetadata.CurrentVersion, DateTime.UtcNow, s.RedactBelow);
+        var meta = CountTableMetadata.From(sum, s.RedactBelow);
         await CountTableFile.WriteAsync(Path.Combine(dir, "counts.parquet"), counted.Rows, counted.HasTokenIds, meta, ct);
         await TableFiles.WriteSpectrumAsync(Path.Combine(dir, "spectrum.parquet"), counted.Spectrum, ct);
         await FitTableFile.WriteAsync(Path.Combine(dir, "fit.parquet"), [("all", fit)], ct);

@@ -20,6 +20,10 @@ public sealed record CountTableMetadata(
     /// <summary>The version of this library.</summary>
     public static string CurrentVersion => typeof(CountTableMetadata).Assembly.GetName().Version?.ToString(3) ?? "0";
 
+    /// <summary>The metadata of a table written now from a counting run.</summary>
+    public static CountTableMetadata From(CountSummary s, long redactBelow) =>
+        new(s.TokenizerSpec, s.Normalization, s.CaseRule, s.Tokens, s.Types, s.Inputs, CurrentVersion, DateTime.UtcNow, redactBelow);
+
     internal Dictionary<string, string> ToFooter() => new()
     {
         ["rankfreq.tokenizer"] = Tokenizer,

@@ -72,7 +72,7 @@ public class CountingTests
         async Task<string> CountTo(string name, int k = 0, int n = 0, params string[] files)
         {
             using var r = CountEngine.Count(files, new CountSettings(ShardIndex: k, ShardCount: n));
-            var meta = new CountTableMetadata(r.Summary.TokenizerSpec, r.Summary.Normalization, r.Summary.CaseRule, r.Summary.Tokens, r.Summary.Types, r.Summary.Inputs, "t", DateTime.UtcNow, 0);
+            var meta = CountTableMetadata.From(r.Summary, 0);
             await CountTableFile.WriteAsync(d[name], r.Rows, false, meta);
             return d[name];
         }
@@ -99,7 +99,7 @@ public class CountingTests
         {
             using var r = CountEngine.Count([d["a.txt"]], new CountSettings(tok));
             var s = r.Summary;
-            await CountTableFile.WriteAsync(d[name], r.Rows, false, new CountTableMetadata(s.TokenizerSpec, s.Normalization, s.CaseRule, s.Tokens, s.Types, s.Inputs, "t", DateTime.UtcNow, 0));
+            await CountTableFile.WriteAsync(d[name], r.Rows, false, CountTableMetadata.From(s, 0));
         }
         var e = await Assert.ThrowsAsync<StorageException>(() => TableMerge.MergeAsync([d["w.parquet"], d["k.parquet"]], d["m.parquet"]));
         Assert.Contains("k.parquet", e.Message);
@@ -112,7 +112,7 @@ public class CountingTests
         using var d = new TempDir();
         using var r = CountEngine.Count([Corpora.File("kjv-bible.txt")], new CountSettings());
         var s = r.Summary;
-        await CountTableFile.WriteAsync(d["red.parquet"], r.Rows, false, new CountTableMetadata(s.TokenizerSpec, s.Normalization, s.CaseRule, s.Tokens, s.Types, s.Inputs, "t", DateTime.UtcNow, 5));
+        await CountTableFile.WriteAsync(d["red.parquet"], r.Rows, false, CountTableMetadata.From(s, 5));
         await using var t = await CountTableFile.OpenAsync(d["red.parquet"]);
         Assert.Equal(r.Spectrum, t.ReadSpectrum() with { });
         var rows = Rows(t);

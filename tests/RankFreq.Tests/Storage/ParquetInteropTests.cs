@@ -14,7 +14,7 @@ public class ParquetInteropTests
         File.WriteAllText(d["a.txt"], string.Join(' ', Enumerable.Range(0, 5000).Select(i => "t" + (i * 7919 % 613))) + " ünïcödé ünïcödé");
         using var r = CountEngine.Count([d["a.txt"]], new CountSettings());
         var s = r.Summary;
-        await CountTableFile.WriteAsync(d["t.parquet"], r.Rows, false, new CountTableMetadata(s.TokenizerSpec, s.Normalization, s.CaseRule, s.Tokens, s.Types, s.Inputs, "t", DateTime.UtcNow, 0));
+        await CountTableFile.WriteAsync(d["t.parquet"], r.Rows, false, CountTableMetadata.From(s, 0));
         var mine = (InMemoryRows)r.Rows;
 
         using var file = new ParquetSharp.ParquetFileReader(d["t.parquet"]);
