@@ -20,6 +20,53 @@ if (args.Length > 1 && args[0] == "encode-whole")
     Console.WriteLine($"o200k_base EncodeToIds over the whole text: {sw0.Elapsed.TotalSeconds:F2} s, {total:N0} tokens");
     return;
 }
+if (args.Length > 1 && args[0] == "stages")
+{
+    // where counting time goes, one thread, whole file in memory
+    var bytes = File.ReadAllBytes(args[1]);
+    for (int round = 0; round < 2; round++)
+    {
+        var sw1 = Stopwatch.StartNew();
+        bool valid = System.Text.Unicode.Utf8.IsValid(bytes);
+        double tValid = sw1.Elapsed.TotalSeconds;
+        sw1.Restart();
+        var nullSink = new NullSink();
+        var sess = new WordTokenizer(false).CreateSession(nullSink);
+        for (int i = 0; i < bytes.Length; i += 1 << 20) sess.Feed(bytes.AsSpan(i, Math.Min(1 << 20, bytes.Length - i)), false);
+        sess.Feed([], true);
+        double tTok = sw1.Elapsed.TotalSeconds;
+        sw1.Restart();
+        var table = new TokenTable();
+        var ts = new TableOnly(table);
+        var sess2 = new WordTokenizer(false).CreateSession(ts);
+        for (int i = 0; i < bytes.Length; i += 1 << 20) sess2.Feed(bytes.AsSpan(i, Math.Min(1 << 20, bytes.Length - i)), false);
+        sess2.Feed([], true);
+        double tAll = sw1.Elapsed.TotalSeconds;
+        sw1.Restart();
+        var az = System.Buffers.SearchValues.Create("abcdefghijklmnopqrstuvwxyzABCDEFGHIJKLMNOPQRSTUVWXYZ0123456789"u8);
+        long cnt = 0; int p0 = 0; ReadOnlySpan<byte> all = bytes;
+        while (true)
+        {
+            int k = all[p0..].IndexOfAny(az); if (k < 0) break; p0 += k;
+            int e = all[p0..].IndexOfAnyExcept(az); cnt++; if (e < 0) break; p0 += e;
+        }
+        {
+            var sw2 = Stopwatch.StartNew();
+            var ns = new NullSink();
+            var sk = new WordTokenizer(true).CreateSession(ns);
+            for (int i = 0; i < bytes.Length; i += 1 << 20) sk.Feed(bytes.AsSpan(i, Math.Min(1 << 20, bytes.Length - i)), false);
+            sk.Feed([], true);
+            Console.WriteLine($"keep-case tokenize only {sw2.Elapsed.TotalSeconds:F3} s");
+            sw2.Restart();
+            var sk2 = new WordTokenizer(true).CreateSession(ns);
+            sk2.Feed(bytes, true);
+            Console.WriteLine($"keep-case one block {sw2.Elapsed.TotalSeconds:F3} s");
+        }
+        Console.WriteLine($"bare scan {sw1.Elapsed.TotalSeconds:F3} s, {cnt:N0} runs");
+        Console.WriteLine($"valid={valid} utf8 check {tValid:F3} s; tokenize only {tTok:F3} s ({nullSink.N:N0} tokens); tokenize+table {tAll:F3} s ({table.Count:N0} types)");
+    }
+    return;
+}
 if (args.Length > 1 && args[0] == "make-spectrum") { ReplicateComparison.WriteSpectrum(args[1]); return; }
 BenchmarkSwitcher.FromAssembly(typeof(Kernels).Assembly).Run(args.Skip(1).ToArray());
 
@@ -60,6 +107,19 @@ public class Kernels
         public void AddToken(ReadOnlySpan<byte> utf8) => t.Add(utf8, 1, 0);
         public void AddId(int id) { }
     }
+}
+
+sealed class NullSink : ITokenSink
+{
+    public long N;
+    public void AddToken(ReadOnlySpan<byte> utf8) { N++; }
+    public void AddId(int id) { }
+}
+
+sealed class TableOnly(TokenTable t) : ITokenSink
+{
+    public void AddToken(ReadOnlySpan<byte> utf8) => t.Add(utf8, 1, 0);
+    public void AddId(int id) { }
 }
 
 /// <summary>One goodness-of-fit replicate done two ways on the same 10^6-type power law: as a spectrum, and per type.</summary>

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using System.Diagnostics;
 using System.Text;
 using RankFreq.Sources;
@@ -169,6 +170,7 @@ public static class CountEngine
 
         public void Write(ReadOnlySpan<byte> utf8, bool endOfDocument) => _session.Feed(utf8, endOfDocument);
 
+        [MethodImpl(MethodImplOptions.AggressiveOptimization)]
         public void AddToken(ReadOnlySpan<byte> utf8)
         {
             Table.Add(utf8, 1, TokenTable.PackPosition(_unit, _pos));

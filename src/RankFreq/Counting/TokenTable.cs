@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using System.IO.Hashing;
 using System.Runtime.InteropServices;
 
@@ -21,10 +22,11 @@ internal sealed class TokenTable
     }
 
     private const int PageBytes = 1 << 20;
-    private readonly List<byte[]> _pages = [];
+    private byte[][] _pages = new byte[16][];
+    private int _pageCount;
     private byte[] _page = [];
     private int _pagePos = PageBytes;
-    private int[] _buckets = new int[1 << 12];
+    private ulong[] _buckets = new ulong[1 << 12];   // (hash tag << 32) | (entry index + 1); 0 = empty
     private Entry[] _entries = new Entry[1 << 11];
     private int _count;
     private long _arenaBytes;
@@ -33,7 +35,7 @@ internal sealed class TokenTable
     public int Count => _count;
 
     /// <summary>Approximate bytes held (entries, index and arena).</summary>
-    public long MemoryBytes => (long)_entries.Length * 40 + (long)_buckets.Length * 4 + _arenaBytes;
+    public long MemoryBytes => (long)_entries.Length * 40 + (long)_buckets.Length * 8 + _arenaBytes;
 
     internal ReadOnlySpan<Entry> Entries => _entries.AsSpan(0, _count);
 
@@ -43,28 +45,65 @@ internal sealed class TokenTable
     /// <summary>The key bytes of an entry.</summary>
     public ReadOnlySpan<byte> Key(in Entry e) => _pages[(int)(e.Ref >> 32)].AsSpan((int)e.Ref, e.Len);
 
+    /// <summary>
+    /// A fast 64-bit hash of short keys (the wyhash-style 128-bit multiply mix of two overlapping word reads);
+    /// keys over 16 bytes use XxHash3. Quality matters only for probe lengths: the table compares keys exactly.
+    /// </summary>
+    internal static ulong Hash(ReadOnlySpan<byte> k)
+    {
+        ref byte r = ref MemoryMarshal.GetReference(k);
+        int n = k.Length;
+        ulong a, b;
+        if (n >= 8)
+        {
+            if (n > 16) return XxHash3.HashToUInt64(k);
+            a = Unsafe.ReadUnaligned<ulong>(ref r);
+            b = Unsafe.ReadUnaligned<ulong>(ref Unsafe.Add(ref r, n - 8));
+        }
+        else if (n >= 4)
+        {
+            a = Unsafe.ReadUnaligned<uint>(ref r);
+            b = Unsafe.ReadUnaligned<uint>(ref Unsafe.Add(ref r, n - 4));
+        }
+        else if (n > 0)
+        {
+            a = (ulong)r | ((ulong)Unsafe.Add(ref r, n >> 1) << 8) | ((ulong)Unsafe.Add(ref r, n - 1) << 16);
+            b = 0;
+        }
+        else { a = 0; b = 0; }
+        ulong hi = Math.BigMul(a ^ 0xA0761D6478BD642FUL, b ^ 0xE7037ED1A0B428DBUL ^ (ulong)n, out ulong lo);
+        return hi ^ lo;
+    }
+
     /// <summary>Adds <paramref name="count"/> occurrences, keeping the earliest first position.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public void Add(ReadOnlySpan<byte> key, long count, long first, int id = -1)
     {
-        uint h = (uint)XxHash3.HashToUInt64(key);
+        ulong h64 = Hash(key);
+        uint tag = (uint)(h64 >> 32);
         int mask = _buckets.Length - 1;
-        int b = (int)(h & mask);
+        int b = (int)h64 & mask;
+        ref ulong b0 = ref MemoryMarshal.GetArrayDataReference(_buckets);
         while (true)
         {
-            int slot = _buckets[b];
+            ulong slot = Unsafe.Add(ref b0, b);
             if (slot == 0) break;
-            ref Entry e = ref _entries[slot - 1];
-            if (e.Hash == h && e.Len == key.Length && Key(e).SequenceEqual(key))
+            if ((uint)(slot >> 32) == tag)
             {
-                e.Count += count;
-                if (first < e.First) e.First = first;
-                return;
+                ref Entry e = ref _entries[(int)(uint)slot - 1];
+                if (e.Len == key.Length && Key(e).SequenceEqual(key))
+                {
+                    e.Count += count;
+                    if (first < e.First) e.First = first;
+                    return;
+                }
             }
             b = (b + 1) & mask;
         }
         if (_count == _entries.Length) Array.Resize(ref _entries, _entries.Length * 2);
-        _entries[_count] = new Entry { Ref = Store(key), Len = key.Length, Hash = h, Count = count, First = first, Id = id };
-        _buckets[b] = ++_count;
+        _entries[_count] = new Entry { Ref = Store(key), Len = key.Length, Hash = tag, Count = count, First = first, Id = id };
+        _count++;
+        Unsafe.Add(ref b0, b) = ((ulong)tag << 32) | (uint)_count;
         if (_count * 2 > _buckets.Length) Rehash();
     }
 
@@ -73,25 +112,27 @@ internal sealed class TokenTable
         if (_pagePos + key.Length > _page.Length)
         {
             _page = new byte[Math.Max(PageBytes, key.Length)];
-            _pages.Add(_page);
+            if (_pageCount == _pages.Length) Array.Resize(ref _pages, _pages.Length * 2);
+            _pages[_pageCount++] = _page;
             _pagePos = 0;
             _arenaBytes += _page.Length;
         }
         key.CopyTo(_page.AsSpan(_pagePos));
-        long r = ((long)(_pages.Count - 1) << 32) | (uint)_pagePos;
+        long r = ((long)(_pageCount - 1) << 32) | (uint)_pagePos;
         _pagePos += key.Length;
         return r;
     }
 
     private void Rehash()
     {
-        var nb = new int[_buckets.Length * 2];
+        var nb = new ulong[_buckets.Length * 2];
         int mask = nb.Length - 1;
         for (int i = 0; i < _count; i++)
         {
-            int b = (int)(_entries[i].Hash & mask);
+            ulong h64 = Hash(Key(_entries[i]));
+            int b = (int)h64 & mask;
             while (nb[b] != 0) b = (b + 1) & mask;
-            nb[b] = i + 1;
+            nb[b] = ((ulong)_entries[i].Hash << 32) | (uint)(i + 1);
         }
         _buckets = nb;
     }
@@ -127,11 +168,12 @@ internal sealed class TokenTable
     /// <summary>Forgets everything (after a spill).</summary>
     public void Clear()
     {
-        _pages.Clear();
+        _pages = new byte[16][];
+        _pageCount = 0;
         _page = [];
         _pagePos = PageBytes;
         _arenaBytes = 0;
-        _buckets = new int[1 << 12];
+        _buckets = new ulong[1 << 12];
         _entries = new Entry[1 << 11];
         _count = 0;
     }

@@ -1,4 +1,6 @@
 using System.Buffers;
+using System.Runtime.CompilerServices;
+using System.Runtime.InteropServices;
 using System.Globalization;
 using System.Text;
 
@@ -37,6 +39,12 @@ public sealed class WordTokenizer(bool keepCase) : ITokenizer
     public string DisplayToken(int id) => throw new NotSupportedException();
     /// <inheritdoc/>
     public ITokenizerSession CreateSession(ITokenSink sink) => new Session(sink, keepCase);
+
+    // Byte tables for the ASCII fast path (constant data, so the JIT drops bounds checks on a byte index).
+    // StartTable: 1 where a token may start (ASCII letter or digit, or any non-ASCII byte).
+    private static ReadOnlySpan<byte> StartTable => [0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 0, 0, 0, 0, 0, 0, 0, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 0, 0, 0, 0, 0, 0, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 0, 0, 0, 0, 0, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1];
+    // WordTable: 1 lower-case letter or digit, 3 upper-case letter (bit 2 marks case), 0 otherwise.
+    private static ReadOnlySpan<byte> WordTable => [0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 0, 0, 0, 0, 0, 0, 0, 3, 3, 3, 3, 3, 3, 3, 3, 3, 3, 3, 3, 3, 3, 3, 3, 3, 3, 3, 3, 3, 3, 3, 3, 3, 3, 0, 0, 0, 0, 0, 0, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0];
 
     // ASCII classes: 0 separator, 1 lower/digit, 2 upper, 3 apostrophe.
     private static readonly byte[] AsciiClass = BuildAsciiClass();
@@ -116,12 +124,44 @@ public sealed class WordTokenizer(bool keepCase) : ITokenizer
             finally { ArrayPool<byte>.Shared.Return(joined); }
         }
 
+        [MethodImpl(MethodImplOptions.AggressiveOptimization)]
         private void Process(ReadOnlySpan<byte> s, bool eod)
         {
             int n = s.Length, i = 0, start = -1;
             bool nonAscii = false, upper = false;
             while (i < n)
             {
+                if (start < 0)
+                {
+                    // fast path: skip separators, then take a run of ASCII letters and digits
+                    ref byte r0 = ref MemoryMarshal.GetReference(s);
+                    while (i < n && StartTable[Unsafe.Add(ref r0, i)] == 0) i++;
+                    if (i >= n) break;
+                    if (Unsafe.Add(ref r0, i) < 0x80)
+                    {
+                        int st = i, cls = 0;
+                        while (i < n)
+                        {
+                            int c = WordTable[Unsafe.Add(ref r0, i)];
+                            if (c == 0) break;
+                            cls |= c;
+                            i++;
+                        }
+                        bool up = (cls & 2) != 0;
+                        while (i - st > MaxTokenBytes) { EmitAscii(s.Slice(st, MaxTokenBytes)); st += MaxTokenBytes; }
+                        if (i < n && Unsafe.Add(ref r0, i) < 0x80 && Unsafe.Add(ref r0, i) != (byte)'\'')
+                        {
+                            // the run ends at an ASCII separator: a whole token
+                            Emit(s[st..i], false, up);
+                            i++;
+                            continue;
+                        }
+                        start = st;
+                        nonAscii = false;
+                        upper = up;
+                        if (i >= n) break;
+                    }
+                }
                 byte b = s[i];
                 if (b < 0x80)
                 {
@@ -211,6 +251,13 @@ public sealed class WordTokenizer(bool keepCase) : ITokenizer
             _carryLen = tail.Length;
         }
 
+        private void EmitAscii(ReadOnlySpan<byte> tok)
+        {
+            if (tok.IsEmpty) return;
+            Emit(tok, false, !keepCase && tok.ContainsAnyInRange((byte)'A', (byte)'Z'));
+        }
+
+        [MethodImpl(MethodImplOptions.AggressiveOptimization)]
         private void Emit(ReadOnlySpan<byte> tok, bool nonAscii, bool upper)
         {
             if (!nonAscii)
