@@ -28,7 +28,7 @@ public static class CountEngine
             files = files.Where((_, i) => i % settings.ShardCount == settings.ShardIndex - 1).ToList();
         }
         int threads = settings.EffectiveThreads;
-        var units = InputPlanner.Plan(files, tokenizer.SplitsAtNewlines, threads, settings.SplitAboveBytes);
+        var units = InputPlanner.Plan(files, tokenizer.RangeCut, threads, settings.SplitAboveBytes);
         long totalBytes = files.Sum(f => f.Length);
         var unitTokens = new long[units.Count];
         var spill = new SpillSet(settings.TempDirectory);

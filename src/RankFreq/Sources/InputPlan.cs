@@ -160,22 +160,52 @@ public static class InputPlanner
 
     /// <summary>
     /// Work units in corpus order; a plain uncompressed text file over <paramref name="splitAbove"/> bytes is cut
-    /// into ranges that start after a newline, when the tokenizer never joins tokens across a newline.
+    /// into up to <paramref name="parts"/> ranges at positions the tokenizer's <paramref name="cut"/> rule allows,
+    /// found here once so that neighbouring ranges agree exactly.
     /// </summary>
-    public static IReadOnlyList<WorkUnit> Plan(IReadOnlyList<InputFile> files, bool mayCutAtNewlines, int parts, long splitAbove = 16L << 20)
+    public static IReadOnlyList<WorkUnit> Plan(IReadOnlyList<InputFile> files, RangeCut cut, int parts, long splitAbove = 16L << 20)
     {
         var units = new List<WorkUnit>();
         foreach (var f in files)
         {
-            if (mayCutAtNewlines && !f.IsStdin && f.Compression == CompressionKind.None && f.Format == InputFormat.Text && f.Length > splitAbove && parts > 1)
+            if (cut != RangeCut.None && !f.IsStdin && f.Compression == CompressionKind.None && f.Format == InputFormat.Text && f.Length > splitAbove && parts > 1)
             {
-                int k = (int)Math.Min(parts, f.Length / (splitAbove / 4));
+                int k = (int)Math.Min(parts, Math.Max(1, f.Length / Math.Max(1, splitAbove / 4)));
                 long step = f.Length / k;
-                for (int i = 0; i < k; i++)
-                    units.Add(new WorkUnit(units.Count, f, i * step, i == k - 1 ? f.Length : (i + 1) * step));
+                var cuts = new List<long> { 0 };
+                using (var fs = new FileStream(f.Path, FileMode.Open, FileAccess.Read, FileShare.Read, 1 << 16))
+                    for (int i = 1; i < k; i++)
+                    {
+                        long c = FindCut(fs, Math.Max(i * step, cuts[^1]), cut);
+                        if (c > cuts[^1] && c < f.Length) cuts.Add(c);
+                    }
+                cuts.Add(f.Length);
+                for (int i = 0; i + 1 < cuts.Count; i++) units.Add(new WorkUnit(units.Count, f, cuts[i], cuts[i + 1]));
             }
             else units.Add(new WorkUnit(units.Count, f, 0, -1));
         }
         return units;
+    }
+
+    /// <summary>The first position p ≥ <paramref name="from"/> where a range may start: after a newline (followed by an ASCII letter, for that rule).</summary>
+    internal static long FindCut(Stream s, long from, RangeCut rule)
+    {
+        if (from <= 0) return 0;
+        s.Seek(from - 1, SeekOrigin.Begin);
+        var buf = new byte[1 << 16];
+        long pos = from - 1;      // position of buf[0]
+        bool afterNewline = false;
+        while (true)
+        {
+            int n = s.Read(buf, 0, buf.Length);
+            if (n <= 0) return s.Length;
+            for (int i = 0; i < n; i++)
+            {
+                byte b = buf[i];
+                if (afterNewline && (rule == RangeCut.AnyNewline || char.IsAsciiLetter((char)b))) return pos + i;
+                afterNewline = b == (byte)'\n';
+            }
+            pos += n;
+        }
     }
 }

@@ -39,11 +39,7 @@ public static class InputReader
             ? new PrefixStream(f.StdinPeek ?? [], Console.OpenStandardInput())
             : new FileStream(f.Path, FileMode.Open, FileAccess.Read, FileShare.Read, 1 << 16, FileOptions.SequentialScan);
         long start = unit.Start, end = unit.End;
-        if (start > 0)
-        {
-            raw.Seek(start - 1, SeekOrigin.Begin);
-            start = SkipPartialLine(raw, start - 1);
-        }
+        if (start > 0) raw.Seek(start, SeekOrigin.Begin);
         using var counted = new CountingStream(raw);
         using var text = Decompression.Open(counted, f.Compression);
         var sanitizer = new Utf8Sanitizer(f.Format == InputFormat.JsonLines
@@ -70,10 +66,9 @@ public static class InputReader
                 bool last = false;
                 if (end >= 0 && pos + n >= end)
                 {
-                    // This range owns lines that start before End: stop after the newline at or past End-1.
-                    long from = Math.Max(0, end - 1 - pos);
-                    int nl = from < n ? block[(int)from..].IndexOf((byte)'\n') : -1;
-                    if (nl >= 0) { block = block[..((int)from + nl + 1)]; last = true; }
+                    // the range ends exactly at a cut the planner chose
+                    block = block[..(int)(end - pos)];
+                    last = true;
                 }
                 pos += block.Length;
                 crc?.Append(block);
@@ -104,17 +99,6 @@ public static class InputReader
         uint tSize = System.Buffers.Binary.BinaryPrimitives.ReadUInt32LittleEndian(t[4..]);
         if (tCrc != crc || tSize != (uint)size)
             throw new SourceException($"{path}: truncated or corrupt gzip data (the trailer's CRC-32/size do not match the {size} bytes decompressed; a file of several gzip members must be decompressed first)");
-    }
-
-    private static long SkipPartialLine(Stream s, long pos)
-    {
-        int b;
-        while ((b = s.ReadByte()) >= 0)
-        {
-            pos++;
-            if (b == '\n') break;
-        }
-        return pos;
     }
 
     private static bool IsDecoderFault(Exception e) =>

@@ -44,8 +44,8 @@ public interface ITokenizer
     /// <summary>Vocabulary size for id tokenizers (ids are in [0, size)); 0 for byte tokenizers.</summary>
     int VocabularySize { get; }
 
-    /// <summary>Whether a long plain-text file may be split at newlines into blocks counted in parallel.</summary>
-    bool SplitsAtNewlines { get; }
+    /// <summary>Where a long plain-text file may be cut into ranges counted in parallel without changing any token.</summary>
+    Sources.RangeCut RangeCut { get; }
 
     /// <summary>Readable, unique form of a vocabulary id: valid UTF-8 text as is, other bytes escaped as <c>\xHH</c>.</summary>
     string DisplayToken(int id);

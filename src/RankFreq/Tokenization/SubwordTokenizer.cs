@@ -44,7 +44,7 @@ public sealed class SubwordTokenizer : ITokenizer
     /// <inheritdoc/>
     public int VocabularySize => _display.Length;
     /// <inheritdoc/>
-    public bool SplitsAtNewlines => false;
+    public Sources.RangeCut RangeCut => _pre is null ? Sources.RangeCut.None : Sources.RangeCut.NewlineBeforeAsciiLetter;
 
     /// <summary>The underlying Microsoft.ML.Tokenizers encoder (used by tests and benchmarks for comparison).</summary>
     public Tokenizer Encoder => _tokenizer;

@@ -17,7 +17,7 @@ public sealed class WhitespaceTokenizer : ITokenizer
     /// <inheritdoc/>
     public int VocabularySize => 0;
     /// <inheritdoc/>
-    public bool SplitsAtNewlines => true;
+    public Sources.RangeCut RangeCut => Sources.RangeCut.AnyNewline;
     /// <inheritdoc/>
     public string DisplayToken(int id) => throw new NotSupportedException();
     /// <inheritdoc/>
@@ -90,7 +90,7 @@ public sealed class GraphemeTokenizer : ITokenizer
     /// <inheritdoc/>
     public int VocabularySize => 0;
     /// <inheritdoc/>
-    public bool SplitsAtNewlines => true;
+    public Sources.RangeCut RangeCut => Sources.RangeCut.AnyNewline;
     /// <inheritdoc/>
     public string DisplayToken(int id) => throw new NotSupportedException();
     /// <inheritdoc/>

@@ -34,7 +34,7 @@ public sealed class WordTokenizer(bool keepCase) : ITokenizer
     /// <inheritdoc/>
     public int VocabularySize => 0;
     /// <inheritdoc/>
-    public bool SplitsAtNewlines => true;
+    public Sources.RangeCut RangeCut => Sources.RangeCut.AnyNewline;
     /// <inheritdoc/>
     public string DisplayToken(int id) => throw new NotSupportedException();
     /// <inheritdoc/>

@@ -79,6 +79,20 @@ public class SubwordTokenizerTests
     }
 
     [CorpusFact]
+    public void ParallelRangesGiveTheSameIdCounts()
+    {
+        // ranges cut after a newline followed by an ASCII letter (a chunk boundary) must not change any id
+        var path = Corpora.File("kjv-bible.txt");
+        using var one = CountEngine.Count([path], new CountSettings("o200k_base", Threads: 1));
+        using var split = CountEngine.Count([path], new CountSettings("o200k_base", Threads: 2, SplitAboveBytes: 256 << 10));
+        var a = (InMemoryRows)one.Rows;
+        var b = (InMemoryRows)split.Rows;
+        Assert.Equal(a.TokenIds, b.TokenIds);
+        Assert.Equal(a.Counts, b.Counts);
+        Assert.Equal(one.Growth.Types, split.Growth.Types);
+    }
+
+    [CorpusFact]
     public void CountEngineTotalsMatchEncodeToIds()
     {
         var path = Corpora.File("reina-valera-1909.txt");
