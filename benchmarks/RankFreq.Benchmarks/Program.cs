@@ -20,6 +20,38 @@ if (args.Length > 1 && args[0] == "encode-whole")
     Console.WriteLine($"o200k_base EncodeToIds over the whole text: {sw0.Elapsed.TotalSeconds:F2} s, {total:N0} tokens");
     return;
 }
+if (args.Length > 1 && args[0] == "subword-stages")
+{
+    var tok = SubwordTokenizer.Tiktoken("o200k_base");
+    var text = File.ReadAllText(args[1]);
+    text = text[..Math.Min(text.Length, 20_000_000)];
+    var pre = tok.Encoder.PreTokenizer!;
+    for (int round = 0; round < 2; round++)
+    {
+        var sw3 = Stopwatch.StartNew();
+        long chunks = 0;
+        for (int off = 0; off < text.Length; off += 1 << 20)
+        {
+            var part = text.Substring(off, Math.Min(1 << 20, text.Length - off));
+            foreach (var _ in pre.PreTokenize(part)) chunks++;
+        }
+        double tPre = sw3.Elapsed.TotalSeconds;
+        sw3.Restart();
+        long fast = 0; int pp = 0;
+        while (pp < text.Length) { int e = O200kSplitter.Match(text, pp); if (e <= pp) { pp++; continue; } fast++; pp = e; }
+        Console.WriteLine($"hand-written split {sw3.Elapsed.TotalSeconds:F2} s ({fast:N0} chunks)");
+        sw3.Restart();
+        var ns = new NullSink();
+        var sess = tok.CreateSession(ns);
+        var b = System.Text.Encoding.UTF8.GetBytes(text);
+        sess.Feed(b, true);
+        double tAll = sw3.Elapsed.TotalSeconds;
+        sw3.Restart();
+        long whole = tok.EncodeWhole(text).Count;
+        Console.WriteLine($"20 MB: pre-tokenize {tPre:F2} s ({chunks:N0} chunks); session {tAll:F2} s; EncodeToIds {sw3.Elapsed.TotalSeconds:F2} s ({whole:N0} ids)");
+    }
+    return;
+}
 if (args.Length > 1 && args[0] == "stages")
 {
     // where counting time goes, one thread, whole file in memory

@@ -24,14 +24,19 @@ public sealed class SubwordTokenizer : ITokenizer
     private readonly Tokenizer _tokenizer;
     private readonly PreTokenizer? _pre;
     private readonly string[] _display;
+    private readonly bool _fastO200k;
 
-    private SubwordTokenizer(string spec, Tokenizer tokenizer, PreTokenizer? pre, string[] display)
+    private SubwordTokenizer(string spec, Tokenizer tokenizer, PreTokenizer? pre, string[] display, bool fastO200k = false)
     {
         Spec = spec;
         _tokenizer = tokenizer;
         _pre = pre;
         _display = display;
+        _fastO200k = fastO200k;
     }
+
+    /// <summary>The regex pre-tokenizer in use (the reference the hand-written o200k splitter is tested against).</summary>
+    public PreTokenizer? PreTokenizer => _pre;
 
     /// <inheritdoc/>
     public string Spec { get; }
@@ -77,10 +82,11 @@ public sealed class SubwordTokenizer : ITokenizer
 
         var display = ParseTiktokenDisplay(raw.ToArray());
         var standard = TiktokenTokenizer.CreateForEncoding(encoding);
-        var pre = WithoutSpecialTokens(standard.PreTokenizer);
+        var (pre, pattern) = WithoutSpecialTokens(standard.PreTokenizer);
         raw.Position = 0;
         var tok = TiktokenTokenizer.Create(raw, pre, normalizer: null, specialTokens: null);
-        return new SubwordTokenizer(encoding, tok, pre, display);
+        // the hand-written splitter is used only when the library's regex is exactly the one it reproduces
+        return new SubwordTokenizer(encoding, tok, pre, display, encoding == "o200k_base" && pattern == O200kSplitter.Pattern);
     }
 
     /// <summary>A byte-level BPE vocabulary from a vocab.json and merges.txt pair.</summary>
@@ -149,13 +155,13 @@ public sealed class SubwordTokenizer : ITokenizer
     }
 
     /// <summary>Rebuilds a regex pre-tokenizer without its special-token splitting.</summary>
-    private static PreTokenizer? WithoutSpecialTokens(PreTokenizer? pre)
+    private static (PreTokenizer? Pre, string? Pattern) WithoutSpecialTokens(PreTokenizer? pre)
     {
-        if (pre is not RegexPreTokenizer) return pre;
+        if (pre is not RegexPreTokenizer) return (pre, null);
         var field = typeof(RegexPreTokenizer).GetFields(BindingFlags.Instance | BindingFlags.NonPublic)
             .FirstOrDefault(f => f.FieldType == typeof(Regex) && !f.Name.Contains("special", StringComparison.OrdinalIgnoreCase));
-        if (field?.GetValue(pre) is Regex regex) return new RegexPreTokenizer(regex, null);
-        return pre;
+        if (field?.GetValue(pre) is Regex regex) return (new RegexPreTokenizer(regex, null), regex.ToString());
+        return (pre, null);
     }
 
     /// <summary>
@@ -216,7 +222,7 @@ public sealed class SubwordTokenizer : ITokenizer
     {
         private const int CutAt = 1 << 20;
         private const int CacheLimit = 1 << 20;
-        private readonly Dictionary<string, int[]> _cache = new();
+        private readonly ChunkCache _cache = new(CacheLimit);
         private char[] _buf = new char[4096];
         private int _len;
 
@@ -251,6 +257,18 @@ public sealed class SubwordTokenizer : ITokenizer
         private void Encode(ReadOnlySpan<char> text)
         {
             if (text.IsEmpty) return;
+            if (owner._fastO200k)
+            {
+                int p = 0;
+                while (p < text.Length)
+                {
+                    int e = O200kSplitter.Match(text, p);
+                    if (e <= p) { p++; continue; }
+                    EncodeChunk(text[p..e]);
+                    p = e;
+                }
+                return;
+            }
             if (owner._pre is null)
             {
                 foreach (var range in text.EnumerateLines()) EncodeChunk(range);
@@ -263,13 +281,12 @@ public sealed class SubwordTokenizer : ITokenizer
         private void EncodeChunk(ReadOnlySpan<char> chunk)
         {
             if (chunk.IsEmpty) return;
-            var lookup = _cache.GetAlternateLookup<ReadOnlySpan<char>>();
-            if (!lookup.TryGetValue(chunk, out var ids))
+            if (!_cache.TryGet(chunk, out var ids, out int bucket, out uint tag))
             {
                 var list = owner._tokenizer.EncodeToIds(chunk, considerPreTokenization: false, considerNormalization: false);
-                ids = list is int[] a ? a : list.ToArray();
-                if (_cache.Count >= CacheLimit) _cache.Clear();
-                lookup[chunk] = ids;
+                _cache.Add(chunk, list, bucket, tag);
+                foreach (int id in list) sink.AddId(id);
+                return;
             }
             foreach (int id in ids) sink.AddId(id);
         }

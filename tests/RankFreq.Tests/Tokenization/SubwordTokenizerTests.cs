@@ -106,3 +106,42 @@ public class SubwordTokenizerTests
         Assert.Equal(top.Count(), rows.Counts[0]);
     }
 }
+
+public class O200kSplitterTests
+{
+    private static readonly Microsoft.ML.Tokenizers.PreTokenizer Regex = SubwordTokenizer.Tiktoken("o200k_base").PreTokenizer!;
+
+    private static void Same(string text, string what)
+    {
+        var expected = Regex.PreTokenize(text).ToList();
+        var got = O200kSplitter.Chunks(text);
+        if (expected.SequenceEqual(got)) return;
+        int i = 0;
+        while (i < Math.Min(expected.Count, got.Count) && expected[i] == got[i]) i++;
+        string Show((int o, int l)? c) => c is { } x ? $"'{text.Substring(x.o, x.l)}' at {x.o}" : "none";
+        Assert.Fail($"{what}: chunk {i} differs: regex {Show(i < expected.Count ? expected[i] : null)}, splitter {Show(i < got.Count ? got[i] : null)}");
+    }
+
+    [Theory]
+    [InlineData("Hello world, it's HTML5 they're ÉCOLE d'été")]
+    [InlineData("a  b\n\n  c \r\n\td   ")]
+    [InlineData("12345 1,000,000 ١٢٣٤ ½")]
+    [InlineData("x/y//\n--> ... !!\n\n/ /")]
+    [InlineData("camelCaseWord HTTPServer ǅungla ʰello")]
+    [InlineData("emoji 👋🏽 and 𝔘𝔫𝔦𝔠𝔬𝔡𝔢 tokens")]
+    [InlineData("e\u0301cole \u0301mark  \u0301 'S 'LL 'Re I'M")]
+    [InlineData("中文字テキスト한국어 สวัสดี")]
+    public void MatchesTheRegexOnEdgeCases(string text) => Same(text, text);
+
+    [CorpusFact]
+    public void MatchesTheRegexOnEveryUdhrTranslationAndTheLargeTexts()
+    {
+        // every translation in $RANKFREQ_CORPORA/udhr plus the Bibles and the addresses: the regex
+        // pre-tokenizer of Microsoft.ML.Tokenizers is the reference, chunk for chunk
+        foreach (var f in Directory.GetFiles(Corpora.File("udhr/INDEX.tsv")[..^"INDEX.tsv".Length], "*.txt"))
+            Same(File.ReadAllText(f), Path.GetFileName(f));
+        Same(File.ReadAllText(Corpora.File("kjv-bible.txt")), "kjv");
+        Same(File.ReadAllText(Corpora.File("reina-valera-1909.txt")), "reina-valera");
+        Same(File.ReadAllText(Corpora.File("sotu.jsonl"))[..3_000_000], "sotu");
+    }
+}
