@@ -13,6 +13,7 @@ internal sealed class TokenTable
 {
     internal struct Entry
     {
+        public ulong K0, K1; // for keys of at most 16 bytes, the two words that determine them (see ShortWords)
         public long Ref;    // page << 32 | offset
         public int Len;
         public uint Hash;
@@ -35,7 +36,7 @@ internal sealed class TokenTable
     public int Count => _count;
 
     /// <summary>Approximate bytes held (entries, index and arena).</summary>
-    public long MemoryBytes => (long)_entries.Length * 40 + (long)_buckets.Length * 8 + _arenaBytes;
+    public long MemoryBytes => (long)_entries.Length * 56 + (long)_buckets.Length * 8 + _arenaBytes;
 
     internal ReadOnlySpan<Entry> Entries => _entries.AsSpan(0, _count);
 
@@ -46,17 +47,17 @@ internal sealed class TokenTable
     public ReadOnlySpan<byte> Key(in Entry e) => _pages[(int)(e.Ref >> 32)].AsSpan((int)e.Ref, e.Len);
 
     /// <summary>
-    /// A fast 64-bit hash of short keys (the wyhash-style 128-bit multiply mix of two overlapping word reads);
-    /// keys over 16 bytes use XxHash3. Quality matters only for probe lengths: the table compares keys exactly.
+    /// For a key of at most 16 bytes, two words that determine it given its length (overlapping reads of its first
+    /// and last bytes), so such keys are compared without touching the arena; false for longer keys.
     /// </summary>
-    internal static ulong Hash(ReadOnlySpan<byte> k)
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static bool ShortWords(ReadOnlySpan<byte> k, out ulong a, out ulong b)
     {
         ref byte r = ref MemoryMarshal.GetReference(k);
         int n = k.Length;
-        ulong a, b;
         if (n >= 8)
         {
-            if (n > 16) return XxHash3.HashToUInt64(k);
+            if (n > 16) { a = b = 0; return false; }
             a = Unsafe.ReadUnaligned<ulong>(ref r);
             b = Unsafe.ReadUnaligned<ulong>(ref Unsafe.Add(ref r, n - 8));
         }
@@ -71,15 +72,29 @@ internal sealed class TokenTable
             b = 0;
         }
         else { a = 0; b = 0; }
+        return true;
+    }
+
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static ulong Mix(ulong a, ulong b, int n)
+    {
         ulong hi = Math.BigMul(a ^ 0xA0761D6478BD642FUL, b ^ 0xE7037ED1A0B428DBUL ^ (ulong)n, out ulong lo);
         return hi ^ lo;
     }
+
+    /// <summary>
+    /// A fast 64-bit hash: the wyhash-style 128-bit multiply mix of <see cref="ShortWords"/> for keys up to 16 bytes,
+    /// XxHash3 beyond. Quality matters only for probe lengths: keys are always compared exactly.
+    /// </summary>
+    internal static ulong Hash(ReadOnlySpan<byte> k) =>
+        ShortWords(k, out ulong a, out ulong b) ? Mix(a, b, k.Length) : XxHash3.HashToUInt64(k);
 
     /// <summary>Adds <paramref name="count"/> occurrences, keeping the earliest first position.</summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public void Add(ReadOnlySpan<byte> key, long count, long first, int id = -1)
     {
-        ulong h64 = Hash(key);
+        bool isShort = ShortWords(key, out ulong a, out ulong w);
+        ulong h64 = isShort ? Mix(a, w, key.Length) : XxHash3.HashToUInt64(key);
         uint tag = (uint)(h64 >> 32);
         int mask = _buckets.Length - 1;
         int b = (int)h64 & mask;
@@ -91,7 +106,7 @@ internal sealed class TokenTable
             if ((uint)(slot >> 32) == tag)
             {
                 ref Entry e = ref _entries[(int)(uint)slot - 1];
-                if (e.Len == key.Length && Key(e).SequenceEqual(key))
+                if (e.Len == key.Length && (isShort ? e.K0 == a && e.K1 == w : Key(e).SequenceEqual(key)))
                 {
                     e.Count += count;
                     if (first < e.First) e.First = first;
@@ -101,7 +116,7 @@ internal sealed class TokenTable
             b = (b + 1) & mask;
         }
         if (_count == _entries.Length) Array.Resize(ref _entries, _entries.Length * 2);
-        _entries[_count] = new Entry { Ref = Store(key), Len = key.Length, Hash = tag, Count = count, First = first, Id = id };
+        _entries[_count] = new Entry { K0 = a, K1 = w, Ref = Store(key), Len = key.Length, Hash = tag, Count = count, First = first, Id = id };
         _count++;
         Unsafe.Add(ref b0, b) = ((ulong)tag << 32) | (uint)_count;
         if (_count * 2 > _buckets.Length) Rehash();
