@@ -26,8 +26,9 @@ public sealed class SubwordTokenizer : ITokenizer
     private readonly string[] _display;
     private readonly bool _fastO200k;
 
-    private SubwordTokenizer(string spec, Tokenizer tokenizer, PreTokenizer? pre, string[] display, bool fastO200k = false)
+    private SubwordTokenizer(string spec, Tokenizer tokenizer, PreTokenizer? pre, string[] display, bool fastO200k = false, string[]? base64 = null)
     {
+        _base64 = base64;
         Spec = spec;
         _tokenizer = tokenizer;
         _pre = pre;
@@ -48,6 +49,7 @@ public sealed class SubwordTokenizer : ITokenizer
     public TokenIdentity Identity => TokenIdentity.Ids;
     /// <inheritdoc/>
     public int VocabularySize => _display.Length;
+    private readonly string[]? _base64; // tiktoken: token bytes per id, decoded for display only when asked
     /// <inheritdoc/>
     public Sources.RangeCut RangeCut => _pre is null ? Sources.RangeCut.None : Sources.RangeCut.NewlineBeforeAsciiLetter;
 
@@ -55,7 +57,13 @@ public sealed class SubwordTokenizer : ITokenizer
     public Tokenizer Encoder => _tokenizer;
 
     /// <inheritdoc/>
-    public string DisplayToken(int id) => (uint)id < (uint)_display.Length ? _display[id] : $"<id {id}>";
+    public string DisplayToken(int id)
+    {
+        if ((uint)id >= (uint)_display.Length) return $"<id {id}>";
+        if (_display[id] is null && _base64 is not null)
+            _display[id] = _base64[id] is { } b ? Readable(Convert.FromBase64String(b)) : $"<id {id}>";
+        return _display[id];
+    }
 
     /// <inheritdoc/>
     public ITokenizerSession CreateSession(ITokenSink sink) => new Session(this, sink);
@@ -80,14 +88,24 @@ public sealed class SubwordTokenizer : ITokenizer
         using (var inflate = new DeflateStream(s, CompressionMode.Decompress))
             inflate.CopyTo(raw);
 
-        var display = ParseTiktokenDisplay(raw.ToArray());
-        var standard = TiktokenTokenizer.CreateForEncoding(encoding);
-        var (pre, pattern) = WithoutSpecialTokens(standard.PreTokenizer);
+        var base64 = ParseTiktokenBase64(raw.ToArray());
+        // The pre-tokenizer regex without special-token splitting. Building the library's own tokenizer just to read
+        // its regex would load the vocabulary a second time, so the patterns are kept here; a test checks them
+        // against the library's. o200k_base counting uses the hand-written splitter instead of the regex.
+        string pattern = TiktokenPatterns[encoding];
+        var pre = new RegexPreTokenizer(new Regex(pattern, encoding == "o200k_base" ? RegexOptions.None : RegexOptions.Compiled), null);
         raw.Position = 0;
         var tok = TiktokenTokenizer.Create(raw, pre, normalizer: null, specialTokens: null);
-        // the hand-written splitter is used only when the library's regex is exactly the one it reproduces
-        return new SubwordTokenizer(encoding, tok, pre, display, encoding == "o200k_base" && pattern == O200kSplitter.Pattern);
+        return new SubwordTokenizer(encoding, tok, pre, new string[base64.Length], encoding == "o200k_base", base64);
     }
+
+    /// <summary>The pre-tokenizer patterns of Microsoft.ML.Tokenizers 2.0.1 for the embedded encodings.</summary>
+    internal static readonly IReadOnlyDictionary<string, string> TiktokenPatterns = new Dictionary<string, string>
+    {
+        ["cl100k_base"] = @"'(?i:[sdmt]|ll|ve|re)|(?>[^\r\n\p{L}\p{N}]?)(?>\p{L}+)|(?>\p{N}{1,3})| ?(?>[^\s\p{L}\p{N}]+)(?>[\r\n]*)|(?>\s+)$|\s*[\r\n]|\s+(?!\S)|\s",
+        ["r50k_base"] = @"'(?:[sdmt]|ll|ve|re)| ?(?>\p{L}+)| ?(?>\p{N}+)| ?(?>[^\s\p{L}\p{N}]+)|(?>\s+)$|\s+(?!\S)|\s",
+        ["o200k_base"] = O200kSplitter.Pattern,
+    };
 
     /// <summary>A byte-level BPE vocabulary from a vocab.json and merges.txt pair.</summary>
     public static SubwordTokenizer Bpe(string vocabPath, string mergesPath)
@@ -154,21 +172,11 @@ public sealed class SubwordTokenizer : ITokenizer
         return arr;
     }
 
-    /// <summary>Rebuilds a regex pre-tokenizer without its special-token splitting.</summary>
-    private static (PreTokenizer? Pre, string? Pattern) WithoutSpecialTokens(PreTokenizer? pre)
-    {
-        if (pre is not RegexPreTokenizer) return (pre, null);
-        var field = typeof(RegexPreTokenizer).GetFields(BindingFlags.Instance | BindingFlags.NonPublic)
-            .FirstOrDefault(f => f.FieldType == typeof(Regex) && !f.Name.Contains("special", StringComparison.OrdinalIgnoreCase));
-        if (field?.GetValue(pre) is Regex regex) return (new RegexPreTokenizer(regex, null), regex.ToString());
-        return (pre, null);
-    }
-
     /// <summary>
-    /// Parses a tiktoken vocabulary: "base64 rank" lines, or (the packaged form) a "Capacity: N" line followed by one
-    /// base64 token a line with the rank implied by position. Each token shown as UTF-8 where valid, else escaped \xHH.
+    /// Parses a tiktoken vocabulary into the base64 form of each id's bytes: "base64 rank" lines, or (the packaged form)
+    /// a "Capacity: N" line followed by one base64 token a line with the rank implied by position.
     /// </summary>
-    internal static string[] ParseTiktokenDisplay(byte[] file)
+    internal static string[] ParseTiktokenBase64(byte[] file)
     {
         var text = Encoding.ASCII.GetString(file);
         var pairs = new List<(int, string)>();
@@ -180,21 +188,16 @@ public sealed class SubwordTokenizer : ITokenizer
             if (line.Length == 0) continue;
             if (line.StartsWith("Capacity:", StringComparison.Ordinal)) { implicitRanks = true; continue; }
             int sp = line.IndexOf(' ');
-            if (implicitRanks && sp < 0)
-            {
-                pairs.Add((implicitRank++, Readable(Convert.FromBase64String(line))));
-                continue;
-            }
+            if (implicitRanks && sp < 0) { pairs.Add((implicitRank++, line)); continue; }
             if (sp <= 0) continue;
-            pairs.Add((int.Parse(line.AsSpan(sp + 1)), Readable(Convert.FromBase64String(line[..sp]))));
+            pairs.Add((int.Parse(line.AsSpan(sp + 1)), line[..sp]));
         }
         var arr = new string[pairs.Max(p => p.Item1) + 1];
-        foreach (var (id, s) in pairs) arr[id] = s;
-        for (int i = 0; i < arr.Length; i++) arr[i] ??= $"<id {i}>";
+        foreach (var (id, b64) in pairs) arr[id] = b64;
         return arr;
     }
 
-    /// <summary>Valid UTF-8 decoded as is (a literal backslash doubled); every byte of an invalid sequence as \xHH.</summary>
+    /// <summary>Valid UTF-8 decoded as is (a literal backslash doubled); every byte of an invalid sequence as \xHH; each id's form is unique.</summary>
     internal static string Readable(ReadOnlySpan<byte> bytes)
     {
         var sb = new StringBuilder(bytes.Length);

@@ -72,10 +72,22 @@ public class SubwordTokenizerTests
         // memory cut points are exercised: identical ids in identical order to encoding the whole text at once
         var text = File.ReadAllText(Corpora.File("kjv-bible.txt"))[..1_500_000];
         var tok = SubwordTokenizer.Tiktoken(encoding);
-        var whole = tok.EncodeWhole(text);
+        // reference: the library's own standard tokenizer for the encoding, encoding the whole text (it has no special-token text)
+        var whole = Microsoft.ML.Tokenizers.TiktokenTokenizer.CreateForEncoding(encoding).EncodeToIds(text);
         var cached = ViaSession(tok, text, 64 * 1024);
         Assert.Equal(whole.Count, cached.Count);
         Assert.True(whole.SequenceEqual(cached));
+    }
+
+    [Theory]
+    [InlineData("cl100k_base")]
+    [InlineData("o200k_base")]
+    [InlineData("r50k_base")]
+    public void KeptPatternsAreTheLibrarysOwn(string encoding)
+    {
+        var pre = Microsoft.ML.Tokenizers.TiktokenTokenizer.CreateForEncoding(encoding).PreTokenizer!;
+        var field = pre.GetType().GetField("_regex", System.Reflection.BindingFlags.Instance | System.Reflection.BindingFlags.NonPublic)!;
+        Assert.Equal(field.GetValue(pre)!.ToString(), SubwordTokenizer.TiktokenPatterns[encoding]);
     }
 
     [CorpusFact]
@@ -109,7 +121,8 @@ public class SubwordTokenizerTests
 
 public class O200kSplitterTests
 {
-    private static readonly Microsoft.ML.Tokenizers.PreTokenizer Regex = SubwordTokenizer.Tiktoken("o200k_base").PreTokenizer!;
+    // the library's own pre-tokenizer for o200k_base (special-token text does not occur in these texts)
+    private static readonly Microsoft.ML.Tokenizers.PreTokenizer Regex = Microsoft.ML.Tokenizers.TiktokenTokenizer.CreateForEncoding("o200k_base").PreTokenizer!;
 
     private static void Same(string text, string what)
     {
