@@ -40,7 +40,9 @@ public static class CountEngine
         bool handedOver = false;
         try
         {
-            var order = units.OrderByDescending(u => u.End >= 0 ? u.End - u.Start : u.File.Length).ToList();
+            // units handed out one at a time in corpus order, so each worker meets its units in increasing order and
+            // the first time it sees a type is also that type's earliest position among its units
+            var order = System.Collections.Concurrent.Partitioner.Create(units, System.Collections.Concurrent.EnumerablePartitionerOptions.NoBuffering);
             Parallel.ForEach(order,
                 new ParallelOptions { MaxDegreeOfParallelism = threads, CancellationToken = ct },
                 () =>
@@ -179,9 +181,8 @@ public static class CountEngine
 
         public void AddId(int id)
         {
-            IdCounts![id]++;
-            long p = TokenTable.PackPosition(_unit, _pos++);
-            if (p < IdFirst![id]) IdFirst[id] = p;
+            if (IdCounts![id]++ == 0) IdFirst![id] = TokenTable.PackPosition(_unit, _pos);
+            _pos++;
         }
     }
 }
