@@ -10,6 +10,69 @@ using RankFreq.Tokenization;
 //   dotnet run -c Release --project benchmarks/RankFreq.Benchmarks -- make-spectrum FILE   10^6 types, α = 2, xmin = 1
 //   dotnet run -c Release --project benchmarks/RankFreq.Benchmarks -- bdn [filters]  BenchmarkDotNet kernels
 if (args.Length > 0 && args[0] == "replicate") { ReplicateComparison.Run(); return; }
+if (args.Length > 1 && args[0] == "words-kernel")
+{
+    // the words tokenizer alone and with the table, one thread, 1 MiB blocks, three rounds
+    var bytes = File.ReadAllBytes(args[1]);
+    for (int round = 0; round < 3; round++)
+    {
+        var sw = Stopwatch.StartNew();
+        var ns = new NullSink();
+        var sess = new WordTokenizer(false).CreateSession(ns);
+        for (int i = 0; i < bytes.Length; i += 1 << 20) sess.Feed(bytes.AsSpan(i, Math.Min(1 << 20, bytes.Length - i)), false);
+        sess.Feed([], true);
+        double tTok = sw.Elapsed.TotalSeconds;
+        sw.Restart();
+        var table = new TokenTable();
+        var sess2 = new WordTokenizer(false).CreateSession(new TableOnly(table));
+        for (int i = 0; i < bytes.Length; i += 1 << 20) sess2.Feed(bytes.AsSpan(i, Math.Min(1 << 20, bytes.Length - i)), false);
+        sess2.Feed([], true);
+        Console.WriteLine($"tokenize {tTok:F3} s ({ns.N:N0} tokens); tokenize + table {sw.Elapsed.TotalSeconds:F3} s ({table.Count:N0} types)");
+    }
+    return;
+}
+if (args.Length > 2 && args[0] == "write-cold")
+{
+    // a cold process writing one count-table-shaped file with Parquet.Net: how much is first-use cost
+    int rows = int.Parse(args[1]);
+    var tokens = Enumerable.Range(0, rows).Select(i => (string?)("tok" + i)).ToArray();
+    var counts = Enumerable.Range(0, rows).Select(i => (long)(rows - i)).ToArray();
+    var sw = Stopwatch.StartNew();
+    var tf = new Parquet.Schema.DataField<string>("token", true);
+    var cf = new Parquet.Schema.DataField<long>("count");
+    var rf = new Parquet.Schema.DataField<long>("rank");
+    var opts = new Parquet.ParquetOptions { CompressionMethod = args[2] == "snappy" ? Parquet.CompressionMethod.Snappy : args[2] == "none" ? Parquet.CompressionMethod.None : Parquet.CompressionMethod.Zstd,
+        CompressionLevel = System.IO.Compression.CompressionLevel.Optimal, DictionaryEncodingThreshold = args.Length < 4 ? 0.8 : 0 };
+    using (var fs = File.Create(Path.Combine(Path.GetTempPath(), "write-cold.parquet")))
+    {
+        var w = Parquet.ParquetWriter.CreateAsync(new Parquet.Schema.ParquetSchema(tf, cf, rf), fs, opts).GetAwaiter().GetResult();
+        using (var rg = w.CreateRowGroup())
+        {
+            rg.WriteAsync(tf, tokens).GetAwaiter().GetResult();
+            rg.WriteAsync<long>(cf, counts).GetAwaiter().GetResult();
+            rg.WriteAsync<long>(rf, counts).GetAwaiter().GetResult();
+        }
+        w.DisposeAsync().AsTask().GetAwaiter().GetResult();
+    }
+    Console.WriteLine($"{rows} rows, {args[2]}{(args.Length < 4 ? "" : " no-dict")}: {sw.Elapsed.TotalSeconds:F3} s");
+    return;
+}
+if (args.Length > 1 && args[0] == "count-phases")
+{
+    // where a whole `count` goes, in process: counting (2 threads), then the Parquet write, twice each
+    for (int round = 0; round < 2; round++)
+    {
+        var sw = Stopwatch.StartNew();
+        using var res = CountEngine.Count([args[1]], new CountSettings(Threads: 2));
+        double tCount = sw.Elapsed.TotalSeconds;
+        sw.Restart();
+        string outPath = Path.Combine(Path.GetTempPath(), $"phases-{Environment.ProcessId}.parquet");
+        RankFreq.Storage.CountTableFile.WriteAsync(outPath, res.Rows, res.HasTokenIds, RankFreq.Storage.CountTableMetadata.From(res.Summary, 0)).GetAwaiter().GetResult();
+        Console.WriteLine($"round {round}: count {tCount:F3} s ({res.Summary.Types:N0} types); write {sw.Elapsed.TotalSeconds:F3} s");
+        File.Delete(outPath);
+    }
+    return;
+}
 if (args.Length > 1 && args[0] == "encode-whole")
 {
     // the baseline for the chunk cache: the library's own o200k_base tokenizer, EncodeToIds over the whole text
@@ -138,6 +201,7 @@ public class Kernels
     private sealed class TableSink(TokenTable t) : ITokenSink
     {
         public void AddToken(ReadOnlySpan<byte> utf8) => t.Add(utf8, 1, 0);
+        public void AddShortToken(ulong lo, ulong hi, int length) => t.AddShort(lo, hi, length, 0);
         public void AddId(int id) { }
     }
 }
@@ -146,12 +210,14 @@ sealed class NullSink : ITokenSink
 {
     public long N;
     public void AddToken(ReadOnlySpan<byte> utf8) { N++; }
+    public void AddShortToken(ulong lo, ulong hi, int length) { N++; }
     public void AddId(int id) { }
 }
 
 sealed class TableOnly(TokenTable t) : ITokenSink
 {
     public void AddToken(ReadOnlySpan<byte> utf8) => t.Add(utf8, 1, 0);
+    public void AddShortToken(ulong lo, ulong hi, int length) => t.AddShort(lo, hi, length, 0);
     public void AddId(int id) { }
 }
 

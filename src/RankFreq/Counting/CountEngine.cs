@@ -179,6 +179,13 @@ public static class CountEngine
             if ((++_pos & 0xFFFF) == 0 && Table.MemoryBytes > _budget) _spill.Spill(Table);
         }
 
+        [MethodImpl(MethodImplOptions.AggressiveOptimization)]
+        public void AddShortToken(ulong lo, ulong hi, int length)
+        {
+            Table.AddShort(lo, hi, length, TokenTable.PackPosition(_unit, _pos));
+            if ((++_pos & 0xFFFF) == 0 && Table.MemoryBytes > _budget) _spill.Spill(Table);
+        }
+
         public void AddId(int id)
         {
             if (IdCounts![id]++ == 0) IdFirst![id] = TokenTable.PackPosition(_unit, _pos);

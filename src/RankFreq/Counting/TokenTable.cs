@@ -1,44 +1,75 @@
 using System.Runtime.CompilerServices;
 using System.IO.Hashing;
 using System.Runtime.InteropServices;
+using System.Buffers.Binary;
 
 namespace RankFreq.Counting;
 
 /// <summary>
-/// Exact counts keyed on UTF-8 bytes: open addressing (linear probing) over an index of entries whose keys live
-/// in an arena of 1 MiB pages, so no string is allocated per token. Each entry also keeps the first position
-/// the type was seen, packed as (work unit, token offset), so vocabulary growth can be read off exactly.
+/// Exact counts keyed on UTF-8 bytes: open addressing (linear probing, load at most 1/2) over slots that hold a
+/// key of up to 16 bytes inline as two zero-padded words, its length and its count, so counting a short token that
+/// is already present touches one cache line and no arena. Longer keys keep their 64-bit hash in the slot and are
+/// compared against the arena (1 MiB pages). Each type also has an entry with its arena reference, vocabulary id and
+/// the first position it was seen, packed as (work unit, token offset), so vocabulary growth can be read off exactly.
 /// </summary>
+/// <remarks>
+/// Counts live in the slots while counting; <see cref="Entries"/> copies them into the entries when read.
+/// <see cref="AddShort"/> sets a type's first position only when it inserts it: callers feed one table positions in
+/// increasing order (a worker meets its work units in corpus order), so a later occurrence never lowers it.
+/// </remarks>
 internal sealed class TokenTable
 {
+    internal struct Slot
+    {
+        public ulong K0, K1; // the key's bytes 0-7 and 8-15, zero-padded (keys of at most 16 bytes); K0 = hash beyond
+        public long Count;
+        public int Len;
+        public int Entry;    // entry index + 1; 0 = empty
+    }
+
     internal struct Entry
     {
-        public ulong K0, K1; // for keys of at most 16 bytes, the two words that determine them (see ShortWords)
         public long Ref;    // page << 32 | offset
         public int Len;
-        public uint Hash;
-        public long Count;
-        public long First;  // PackPosition(unit, offset)
         public int Id;      // vocabulary id, or -1
+        public long Count;  // valid when read through Entries
+        public long First;  // PackPosition(unit, offset)
     }
 
     private const int PageBytes = 1 << 20;
+    private const int InitialSlots = 1 << 12;
     private byte[][] _pages = new byte[16][];
     private int _pageCount;
     private byte[] _page = [];
     private int _pagePos = PageBytes;
-    private ulong[] _buckets = new ulong[1 << 12];   // (hash tag << 32) | (entry index + 1); 0 = empty
-    private Entry[] _entries = new Entry[1 << 11];
+    private Slot[] _slots = new Slot[InitialSlots];
+    private Entry[] _entries = new Entry[InitialSlots / 2];
     private int _count;
     private long _arenaBytes;
+    private bool _dirty;
 
     /// <summary>Number of distinct keys.</summary>
     public int Count => _count;
 
-    /// <summary>Approximate bytes held (entries, index and arena).</summary>
-    public long MemoryBytes => (long)_entries.Length * 56 + (long)_buckets.Length * 8 + _arenaBytes;
+    /// <summary>Approximate bytes held (slots, entries and arena).</summary>
+    public long MemoryBytes => (long)_slots.Length * 32 + (long)_entries.Length * 32 + _arenaBytes;
 
-    internal ReadOnlySpan<Entry> Entries => _entries.AsSpan(0, _count);
+    /// <summary>The entries in insertion order, with their counts.</summary>
+    internal ReadOnlySpan<Entry> Entries
+    {
+        get
+        {
+            if (_dirty) SyncCounts();
+            return _entries.AsSpan(0, _count);
+        }
+    }
+
+    private void SyncCounts()
+    {
+        foreach (ref readonly var s in _slots.AsSpan())
+            if (s.Entry != 0) _entries[s.Entry - 1].Count = s.Count;
+        _dirty = false;
+    }
 
     /// <summary>Packs a first-seen position; units sort before offsets.</summary>
     public static long PackPosition(int unit, long offset) => ((long)unit << 40) | (offset & ((1L << 40) - 1));
@@ -46,35 +77,21 @@ internal sealed class TokenTable
     /// <summary>The key bytes of an entry.</summary>
     public ReadOnlySpan<byte> Key(in Entry e) => _pages[(int)(e.Ref >> 32)].AsSpan((int)e.Ref, e.Len);
 
-    /// <summary>
-    /// For a key of at most 16 bytes, two words that determine it given its length (overlapping reads of its first
-    /// and last bytes), so such keys are compared without touching the arena; false for longer keys.
-    /// </summary>
+    /// <summary>Bytes 0–7 and 8–15 of a key of at most 16 bytes, little-endian and zero-padded; false for longer keys.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static bool ShortWords(ReadOnlySpan<byte> k, out ulong a, out ulong b)
+    internal static bool ShortWords(ReadOnlySpan<byte> k, out ulong a, out ulong b)
     {
-        ref byte r = ref MemoryMarshal.GetReference(k);
         int n = k.Length;
-        if (n >= 8)
-        {
-            if (n > 16) { a = b = 0; return false; }
-            a = Unsafe.ReadUnaligned<ulong>(ref r);
-            b = Unsafe.ReadUnaligned<ulong>(ref Unsafe.Add(ref r, n - 8));
-        }
-        else if (n >= 4)
-        {
-            a = Unsafe.ReadUnaligned<uint>(ref r);
-            b = Unsafe.ReadUnaligned<uint>(ref Unsafe.Add(ref r, n - 4));
-        }
-        else if (n > 0)
-        {
-            a = (ulong)r | ((ulong)Unsafe.Add(ref r, n >> 1) << 8) | ((ulong)Unsafe.Add(ref r, n - 1) << 16);
-            b = 0;
-        }
-        else { a = 0; b = 0; }
+        if (n > 16) { a = b = 0; return false; }
+        Span<byte> pad = stackalloc byte[16];
+        pad.Clear();
+        k.CopyTo(pad);
+        a = BinaryPrimitives.ReadUInt64LittleEndian(pad);
+        b = BinaryPrimitives.ReadUInt64LittleEndian(pad[8..]);
         return true;
     }
 
+    /// <summary>wyhash-style mix: the two halves of the 128-bit product of the key words, each xored with a constant.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     private static ulong Mix(ulong a, ulong b, int n)
     {
@@ -83,43 +100,82 @@ internal sealed class TokenTable
     }
 
     /// <summary>
-    /// A fast 64-bit hash: the wyhash-style 128-bit multiply mix of <see cref="ShortWords"/> for keys up to 16 bytes,
-    /// XxHash3 beyond. Quality matters only for probe lengths: keys are always compared exactly.
+    /// A fast 64-bit hash: <see cref="Mix"/> of the packed words for keys up to 16 bytes, XxHash3 beyond.
+    /// Quality matters only for probe lengths: keys are always compared exactly.
     /// </summary>
     internal static ulong Hash(ReadOnlySpan<byte> k) =>
         ShortWords(k, out ulong a, out ulong b) ? Mix(a, b, k.Length) : XxHash3.HashToUInt64(k);
 
+    /// <summary>
+    /// One occurrence of a key of 1 to 16 bytes given as packed words (see <see cref="ShortWords"/>). The hot path of
+    /// counting; <paramref name="first"/> is used only when the key is new.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public void AddShort(ulong a, ulong b, int len, long first)
+    {
+        ulong h = Mix(a, b, len);
+        Slot[] slots = _slots;
+        int mask = slots.Length - 1;
+        int i = (int)h & mask;
+        ref Slot s0 = ref MemoryMarshal.GetArrayDataReference(slots);
+        while (true)
+        {
+            ref Slot s = ref Unsafe.Add(ref s0, i);
+            if (s.K0 == a && s.K1 == b && s.Len == len)
+            {
+                s.Count++;
+                _dirty = true;
+                return;
+            }
+            if (s.Entry == 0) break;
+            i = (i + 1) & mask;
+        }
+        Span<byte> key = stackalloc byte[16];
+        BinaryPrimitives.WriteUInt64LittleEndian(key, a);
+        BinaryPrimitives.WriteUInt64LittleEndian(key[8..], b);
+        Insert(ref Unsafe.Add(ref s0, i), a, b, key[..len], 1, first, -1);
+    }
+
     /// <summary>Adds <paramref name="count"/> occurrences, keeping the earliest first position.</summary>
-    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public void Add(ReadOnlySpan<byte> key, long count, long first, int id = -1)
     {
         bool isShort = ShortWords(key, out ulong a, out ulong w);
         ulong h64 = isShort ? Mix(a, w, key.Length) : XxHash3.HashToUInt64(key);
-        uint tag = (uint)(h64 >> 32);
-        int mask = _buckets.Length - 1;
-        int b = (int)h64 & mask;
-        ref ulong b0 = ref MemoryMarshal.GetArrayDataReference(_buckets);
+        if (!isShort) a = h64;
+        int mask = _slots.Length - 1;
+        int i = (int)h64 & mask;
         while (true)
         {
-            ulong slot = Unsafe.Add(ref b0, b);
-            if (slot == 0) break;
-            if ((uint)(slot >> 32) == tag)
+            ref Slot s = ref _slots[i];
+            if (s.Entry == 0)
             {
-                ref Entry e = ref _entries[(int)(uint)slot - 1];
-                if (e.Len == key.Length && (isShort ? e.K0 == a && e.K1 == w : Key(e).SequenceEqual(key)))
-                {
-                    e.Count += count;
-                    if (first < e.First) e.First = first;
-                    return;
-                }
+                Insert(ref s, a, w, key, count, first, id);
+                return;
             }
-            b = (b + 1) & mask;
+            if (s.Len == key.Length && s.K0 == a && s.K1 == w && (isShort || Key(_entries[s.Entry - 1]).SequenceEqual(key)))
+            {
+                s.Count += count;
+                ref Entry e = ref _entries[s.Entry - 1];
+                if (first < e.First) e.First = first;
+                _dirty = true;
+                return;
+            }
+            i = (i + 1) & mask;
         }
+    }
+
+    private void Insert(ref Slot s, ulong k0, ulong k1, ReadOnlySpan<byte> key, long count, long first, int id)
+    {
         if (_count == _entries.Length) Array.Resize(ref _entries, _entries.Length * 2);
-        _entries[_count] = new Entry { K0 = a, K1 = w, Ref = Store(key), Len = key.Length, Hash = tag, Count = count, First = first, Id = id };
+        _entries[_count] = new Entry { Ref = Store(key), Len = key.Length, Id = id, Count = count, First = first };
         _count++;
-        Unsafe.Add(ref b0, b) = ((ulong)tag << 32) | (uint)_count;
-        if (_count * 2 > _buckets.Length) Rehash();
+        s.K0 = k0;
+        s.K1 = k1;
+        s.Len = key.Length;
+        s.Count = count;
+        s.Entry = _count;
+        _dirty = true;
+        if (_count * 2 > _slots.Length) Rehash();
     }
 
     private long Store(ReadOnlySpan<byte> key)
@@ -140,16 +196,17 @@ internal sealed class TokenTable
 
     private void Rehash()
     {
-        var nb = new ulong[_buckets.Length * 2];
-        int mask = nb.Length - 1;
-        for (int i = 0; i < _count; i++)
+        var ns = new Slot[_slots.Length * 2];
+        int mask = ns.Length - 1;
+        foreach (ref readonly var s in _slots.AsSpan())
         {
-            ulong h64 = Hash(Key(_entries[i]));
-            int b = (int)h64 & mask;
-            while (nb[b] != 0) b = (b + 1) & mask;
-            nb[b] = ((ulong)_entries[i].Hash << 32) | (uint)(i + 1);
+            if (s.Entry == 0) continue;
+            ulong h = s.Len <= 16 ? Mix(s.K0, s.K1, s.Len) : s.K0;
+            int i = (int)h & mask;
+            while (ns[i].Entry != 0) i = (i + 1) & mask;
+            ns[i] = s;
         }
-        _buckets = nb;
+        _slots = ns;
     }
 
     /// <summary>Entry indices sorted by key bytes (ordinal), the order of a spill run.</summary>
@@ -164,6 +221,7 @@ internal sealed class TokenTable
     /// <summary>Entry indices in rank order: count descending, ties by key bytes.</summary>
     public int[] IndicesByRank()
     {
+        _ = Entries; // brings the counts into the entries
         var idx = new int[_count];
         for (int i = 0; i < idx.Length; i++) idx[i] = i;
         Array.Sort(idx, (a, b) =>
@@ -188,8 +246,9 @@ internal sealed class TokenTable
         _page = [];
         _pagePos = PageBytes;
         _arenaBytes = 0;
-        _buckets = new ulong[1 << 12];
-        _entries = new Entry[1 << 11];
+        _slots = new Slot[InitialSlots];
+        _entries = new Entry[InitialSlots / 2];
         _count = 0;
+        _dirty = false;
     }
 }

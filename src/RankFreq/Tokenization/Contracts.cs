@@ -6,6 +6,19 @@ public interface ITokenSink
     /// <summary>One occurrence of a token given by its UTF-8 bytes (already normalised by the tokenizer).</summary>
     void AddToken(ReadOnlySpan<byte> utf8);
 
+    /// <summary>
+    /// One occurrence of a token of 1 to 16 bytes, packed: <paramref name="lo"/> holds bytes 0–7 and
+    /// <paramref name="hi"/> bytes 8–15, little-endian, zero past <paramref name="length"/>. A hot-path form of
+    /// <see cref="AddToken"/> that lets a counter hash and compare the token as two words without reading it again.
+    /// </summary>
+    void AddShortToken(ulong lo, ulong hi, int length)
+    {
+        Span<byte> b = stackalloc byte[16];
+        System.Buffers.Binary.BinaryPrimitives.WriteUInt64LittleEndian(b, lo);
+        System.Buffers.Binary.BinaryPrimitives.WriteUInt64LittleEndian(b[8..], hi);
+        AddToken(b[..length]);
+    }
+
     /// <summary>One occurrence of a subword token given by its vocabulary id.</summary>
     void AddId(int id);
 }

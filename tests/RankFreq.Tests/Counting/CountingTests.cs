@@ -50,6 +50,40 @@ public class CountingTests
     }
 
     [Fact]
+    public void PackedAndSpanKeysMeetInOneEntry()
+    {
+        // AddShort (packed words, the hot path) and Add (bytes) must agree on every key length up to 16 and beyond,
+        // including keys that differ only by trailing zero bytes, and survive rehashing.
+        var t = new TokenTable();
+        var keys = new List<byte[]>();
+        var rng = new Random(5);
+        for (int i = 0; i < 20_000; i++)
+        {
+            var k = new byte[1 + rng.Next(24)];
+            rng.NextBytes(k);
+            keys.Add(k);
+        }
+        keys.Add([0x61]); keys.Add([0x61, 0]); keys.Add([0x61, 0, 0]);
+        foreach (var k in keys) t.Add(k, 2, 7);
+        foreach (var k in keys)
+            if (k.Length <= 16)
+            {
+                TokenTable.ShortWords(k, out ulong a, out ulong b);
+                t.AddShort(a, b, k.Length, 99);
+            }
+            else t.Add(k, 1, 99);
+        var distinct = keys.Select(Convert.ToHexString).Distinct().Count();
+        Assert.Equal(distinct, t.Count);
+        var byHex = keys.GroupBy(Convert.ToHexString).ToDictionary(g => g.Key, g => (long)g.Count());
+        foreach (ref readonly var e in t.Entries)
+        {
+            long times = byHex[Convert.ToHexString(t.Key(e))];
+            Assert.Equal(3 * times, e.Count);
+            Assert.Equal(7, e.First);
+        }
+    }
+
+    [Fact]
     public void GrowthIsObservedInCorpusOrder()
     {
         using var d = new TempDir();

@@ -80,6 +80,55 @@ public class WordTokenizerTests
         }).QuickCheckThrowOnFailure();
     }
 
+    // Pieces that stress the vectorised path: runs across 16- and 64-byte boundaries, apostrophes at run ends,
+    // non-ASCII letters glued to ASCII runs, separators of every kind.
+    private static readonly string[] VectorPieces =
+        ["a", "Bc", "word", "Mixed", "0123456789abcdefXYZ", new string('q', 70), "'", "’", " ", "  ", ".", "-", "\n", "é", "Ω",
+         "中", "👋", "don't", "x'", "'y", "ß", "ǅ", "e\u0301", "ABCDEFGHIJKLMNOP", "abcdefghijklmnopq", "\t", "_"];
+
+    /// <summary>Property: the vectorised path gives exactly the tokens of the byte-at-a-time rule, for any block sizes.</summary>
+    [Fact]
+    public void VectorPathEqualsScalarRule()
+    {
+        var gen = Gen.Choose(0, VectorPieces.Length - 1).ArrayOf().Select(ix => string.Concat(ix.Select(i => VectorPieces[i])));
+        var cuts = Gen.Choose(1, 300).ArrayOf();
+        Prop.ForAll(gen.ToArbitrary(), cuts.ToArbitrary(), Gen.Elements(true, false).ToArbitrary(), (text, sizes, keep) =>
+        {
+            var bytes = Encoding.UTF8.GetBytes(text);
+            List<string> Run(WordTokenizer tok)
+            {
+                var sink = new ListSink();
+                var session = tok.CreateSession(sink);
+                int pos = 0, k = 0;
+                while (pos < bytes.Length)
+                {
+                    int n = sizes.Length == 0 ? bytes.Length : Math.Min(sizes[k++ % sizes.Length], bytes.Length - pos);
+                    // blocks end on whole characters, as the UTF-8 sanitizer guarantees
+                    while (pos + n < bytes.Length && (bytes[pos + n] & 0xC0) == 0x80) n++;
+                    session.Feed(bytes.AsSpan(pos, n), false);
+                    pos += n;
+                }
+                session.Feed([], true);
+                return sink.Tokens;
+            }
+            return Run(new WordTokenizer(keep) { ScalarOnly = true }).SequenceEqual(Run(new WordTokenizer(keep)));
+        }).QuickCheckThrowOnFailure();
+    }
+
+    [CorpusFact]
+    public void VectorPathEqualsScalarRuleOnKjv()
+    {
+        var bytes = File.ReadAllBytes(Corpora.File("kjv-bible.txt"));
+        var a = new ListSink();
+        var b = new ListSink();
+        new WordTokenizer(false) { ScalarOnly = true }.CreateSession(a).Feed(bytes, true);
+        var v = new WordTokenizer(false).CreateSession(b);
+        for (int i = 0; i < bytes.Length; i += 1 << 16) v.Feed(bytes.AsSpan(i, Math.Min(1 << 16, bytes.Length - i)), false);
+        v.Feed([], true);
+        Assert.True(a.Tokens.Count > 700_000);
+        Assert.Equal(a.Tokens, b.Tokens);
+    }
+
     internal sealed class SessionTextSink(ITokenizerSession s) : RankFreq.Sources.ITextSink
     {
         public void Write(ReadOnlySpan<byte> utf8, bool endOfDocument) => s.Feed(utf8, endOfDocument);
