@@ -205,9 +205,14 @@ internal sealed class GrowthHistogram(long[] checkpoints, long[]? unitStart)
         if (unitStart is null || first == long.MaxValue) return;
         long global = unitStart[(int)(first >> 40)] + (first & ((1L << 40) - 1));
         // first checkpoint c with checkpoints[c] > global: the type is counted from there on
-        int i = Array.BinarySearch(checkpoints, global + 1);
-        if (i < 0) i = ~i;
-        _hist[i]++;
+        int lo = 0, hi = checkpoints.Length;
+        while (lo < hi)
+        {
+            int mid = (lo + hi) >>> 1;
+            if (checkpoints[mid] > global) hi = mid;
+            else lo = mid + 1;
+        }
+        _hist[lo]++;
     }
 
     public GrowthCurve ToCurve()

@@ -72,19 +72,18 @@ internal static class RankBuilder
             var tokens = new string?[idx.Length];
             var counts = new long[idx.Length];
             var ids = withIds ? new int[idx.Length] : null;
-            var spec = new Dictionary<long, long>();
+            var entries = main.Entries;
             for (int r = 0; r < idx.Length; r++)
             {
-                var e = main.Entries[idx[r]];
+                ref readonly var e = ref entries[idx[r]];
                 tokens[r] = Encoding.UTF8.GetString(main.Key(e));
                 counts[r] = e.Count;
                 if (ids is not null) ids[r] = e.Id;
-                spec[e.Count] = spec.GetValueOrDefault(e.Count) + 1;
                 growth.Add(e.First);
             }
             main.Clear();
             spill.Dispose();
-            return (new InMemoryRows(tokens, ids, counts), FrequencySpectrum.FromPairs(spec.Select(kv => (kv.Key, kv.Value))));
+            return (new InMemoryRows(tokens, ids, counts), SpectrumOfRanked(counts));
         }
 
         foreach (var t in tables) spill.Spill(t);
@@ -127,6 +126,22 @@ internal static class RankBuilder
             bufBytes += r.Key.Length + 96;
             if (bufBytes > budget) Flush();
         }
+    }
+
+    /// <summary>The spectrum of counts sorted in descending order, by run lengths.</summary>
+    internal static FrequencySpectrum SpectrumOfRanked(long[] counts)
+    {
+        var values = new List<long>();
+        var types = new List<long>();
+        for (int i = counts.Length - 1; i >= 0;)
+        {
+            int j = i;
+            while (j > 0 && counts[j - 1] == counts[i]) j--;
+            values.Add(counts[i]);
+            types.Add(i - j + 1);
+            i = j - 1;
+        }
+        return new FrequencySpectrum(values.ToArray(), types.ToArray());
     }
 
     /// <summary>Rank-ordered rows merged from rank-sorted runs on disk; can be read once; dispose removes the runs.</summary>

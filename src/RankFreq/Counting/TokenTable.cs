@@ -210,26 +210,97 @@ internal sealed class TokenTable
     }
 
     /// <summary>Entry indices sorted by key bytes (ordinal), the order of a spill run.</summary>
-    public int[] IndicesByKey()
+    public int[] IndicesByKey() => SortedIndices(byCount: false);
+
+    /// <summary>Entry indices in rank order: count descending, ties by key bytes.</summary>
+    public int[] IndicesByRank() => SortedIndices(byCount: true);
+
+    private int[] SortedIndices(bool byCount)
     {
-        var idx = new int[_count];
-        for (int i = 0; i < idx.Length; i++) idx[i] = i;
-        Array.Sort(idx, (a, b) => Key(_entries[a]).SequenceCompareTo(Key(_entries[b])));
+        var entries = Entries;
+        var keys = new SortKey[entries.Length];
+        Span<byte> pad = stackalloc byte[16];
+        for (int i = 0; i < keys.Length; i++)
+        {
+            var k = Key(entries[i]);
+            pad.Clear();
+            k[..Math.Min(16, k.Length)].CopyTo(pad);
+            keys[i] = new SortKey(byCount ? entries[i].Count : 0, BinaryPrimitives.ReadUInt64BigEndian(pad),
+                BinaryPrimitives.ReadUInt64BigEndian(pad[8..]), k.Length, i);
+        }
+        new SortKeyComparer(this).Sort(keys, 0, keys.Length - 1);
+        var idx = new int[keys.Length];
+        for (int i = 0; i < idx.Length; i++) idx[i] = keys[i].Index;
         return idx;
     }
 
-    /// <summary>Entry indices in rank order: count descending, ties by key bytes.</summary>
-    public int[] IndicesByRank()
+    /// <summary>
+    /// A key's sort form: count, then its first 16 bytes as two big-endian words (zero-padded), so most comparisons
+    /// of keys never reach the arena. Zero padding keeps ordinal order: a prefix pads with the smallest byte.
+    /// </summary>
+    private readonly record struct SortKey(long Count, ulong A, ulong B, int Len, int Index);
+
+    /// <summary>
+    /// Orders sort keys. The sort is written here rather than taken from the base library so that ahead-of-time
+    /// compiled builds run it optimised (a base-library sort instantiated over this struct is compiled at run time,
+    /// first unoptimised). Quicksort with median-of-three pivots and insertion sort below 24 elements; recursion on the
+    /// smaller side only, so the stack stays O(log n).
+    /// </summary>
+    private readonly struct SortKeyComparer(TokenTable t)
     {
-        _ = Entries; // brings the counts into the entries
-        var idx = new int[_count];
-        for (int i = 0; i < idx.Length; i++) idx[i] = i;
-        Array.Sort(idx, (a, b) =>
+        public int Compare(in SortKey x, in SortKey y)
         {
-            int c = _entries[b].Count.CompareTo(_entries[a].Count);
-            return c != 0 ? c : Key(_entries[a]).SequenceCompareTo(Key(_entries[b]));
-        });
-        return idx;
+            if (x.Count != y.Count) return x.Count > y.Count ? -1 : 1;
+            if (x.A != y.A) return x.A < y.A ? -1 : 1;
+            if (x.B != y.B) return x.B < y.B ? -1 : 1;
+            if (x.Len <= 16 && y.Len <= 16) return x.Len.CompareTo(y.Len);
+            return t.Key(t._entries[x.Index]).SequenceCompareTo(t.Key(t._entries[y.Index]));
+        }
+
+        public void Sort(SortKey[] a, int lo, int hi)
+        {
+            while (hi - lo >= 24)
+            {
+                int mid = lo + ((hi - lo) >> 1);
+                if (Compare(a[mid], a[lo]) < 0) (a[mid], a[lo]) = (a[lo], a[mid]);
+                if (Compare(a[hi], a[lo]) < 0) (a[hi], a[lo]) = (a[lo], a[hi]);
+                if (Compare(a[hi], a[mid]) < 0) (a[hi], a[mid]) = (a[mid], a[hi]);
+                var pivot = a[mid];
+                int i = lo, j = hi;
+                while (i <= j)
+                {
+                    while (Compare(a[i], pivot) < 0) i++;
+                    while (Compare(pivot, a[j]) < 0) j--;
+                    if (i <= j)
+                    {
+                        (a[i], a[j]) = (a[j], a[i]);
+                        i++;
+                        j--;
+                    }
+                }
+                if (j - lo < hi - i)
+                {
+                    Sort(a, lo, j);
+                    lo = i;
+                }
+                else
+                {
+                    Sort(a, i, hi);
+                    hi = j;
+                }
+            }
+            for (int i = lo + 1; i <= hi; i++)
+            {
+                var v = a[i];
+                int j = i - 1;
+                while (j >= lo && Compare(v, a[j]) < 0)
+                {
+                    a[j + 1] = a[j];
+                    j--;
+                }
+                a[j + 1] = v;
+            }
+        }
     }
 
     /// <summary>Adds every entry of another table.</summary>

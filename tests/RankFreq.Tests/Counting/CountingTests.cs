@@ -84,6 +84,32 @@ public class CountingTests
     }
 
     [Fact]
+    public void RankAndKeyOrdersMatchAPlainOrdinalSort()
+    {
+        // Reference: LINQ ordering with an ordinal byte comparison. Keys share 16-byte prefixes, end in zero bytes,
+        // and straddle the 16-byte packed form, with many equal counts.
+        var rng = new Random(11);
+        var t = new TokenTable();
+        var prefix = "abcdefghijklmnop"u8.ToArray();
+        var seen = new HashSet<string>();
+        for (int i = 0; i < 5000; i++)
+        {
+            int len = rng.Next(1, 30);
+            var k = new byte[len];
+            for (int j = 0; j < len; j++) k[j] = (byte)(rng.Next(4) == 0 ? 0 : rng.Next(97, 100));
+            if (rng.Next(3) == 0) prefix.AsSpan(0, Math.Min(16, len)).CopyTo(k);
+            if (seen.Add(Convert.ToHexString(k))) t.Add(k, rng.Next(1, 4), 0);
+        }
+        var entries = t.Entries.ToArray();
+        var keys = entries.Select(e => t.Key(e).ToArray()).ToArray();
+        var cmp = Comparer<byte[]>.Create((a, b) => a.AsSpan().SequenceCompareTo(b));
+        var byRank = Enumerable.Range(0, entries.Length).OrderByDescending(i => entries[i].Count).ThenBy(i => keys[i], cmp).ToArray();
+        var byKey = Enumerable.Range(0, entries.Length).OrderBy(i => keys[i], cmp).ToArray();
+        Assert.Equal(byRank, t.IndicesByRank());
+        Assert.Equal(byKey, t.IndicesByKey());
+    }
+
+    [Fact]
     public void GrowthIsObservedInCorpusOrder()
     {
         using var d = new TempDir();

@@ -1,0 +1,352 @@
+using System.Buffers.Binary;
+using System.Text;
+using ZstdSharp;
+
+namespace RankFreq.Storage;
+
+/// <summary>Physical type of a column of a flat table.</summary>
+internal enum FlatType { Int32 = 1, Int64 = 2, String = 6 }
+
+/// <summary>A column of a flat table: strings may be nullable; numbers are required.</summary>
+internal sealed record FlatColumn(string Name, FlatType Type, bool Nullable = false);
+
+/// <summary>
+/// Writes a flat Parquet file (no nesting) of required INT32 / INT64 columns and optional UTF-8 string columns:
+/// data pages v1, PLAIN values, RLE definition levels, Zstd-compressed pages, footer key–value metadata.
+/// </summary>
+/// <remarks>
+/// Written for count tables, where the general-purpose writer cost ~0.07 s of first-use time per process and
+/// ~0.7 s per million rows on these machines; this one does a million rows in about a tenth of that. Layout per the
+/// Apache Parquet format specification (parquet.thrift: FileMetaData, RowGroup, ColumnChunk, ColumnMetaData,
+/// PageHeader, DataPageHeader, SchemaElement) and its Thrift compact protocol encoding. Tests read its files back
+/// with Parquet.Net and with ParquetSharp (the Apache Arrow C++ reader).
+/// </remarks>
+internal sealed class FlatParquetWriter : IDisposable
+{
+    private const int RowsPerPage = 1 << 16;
+    private readonly Stream _out;
+    private readonly IReadOnlyList<FlatColumn> _columns;
+    private readonly Compressor _zstd = new(3);
+    private readonly List<RowGroupMeta> _groups = [];
+    private long _pos;
+    private long _rows;
+    private byte[] _page = new byte[1 << 16];
+    private byte[] _packed = new byte[1 << 16];
+
+    private sealed record ChunkMeta(long Offset, long Values, long Uncompressed, long Compressed);
+    private sealed record RowGroupMeta(long Rows, List<ChunkMeta> Chunks);
+
+    public FlatParquetWriter(Stream output, IReadOnlyList<FlatColumn> columns)
+    {
+        _out = output;
+        _columns = columns;
+        Write("PAR1"u8);
+    }
+
+    /// <summary>Key–value metadata written in the footer.</summary>
+    public IReadOnlyDictionary<string, string> Metadata { get; init; } = new Dictionary<string, string>();
+
+    /// <summary>The writer name recorded in the footer.</summary>
+    public string CreatedBy { get; init; } = "rankfreq";
+
+    /// <summary>Writes one row group; <paramref name="data"/> holds, per column, a <c>string?[]</c>, <c>int[]</c> or <c>long[]</c> of <paramref name="rows"/> values.</summary>
+    public void WriteRowGroup(int rows, IReadOnlyList<Array> data)
+    {
+        if (data.Count != _columns.Count) throw new ArgumentException("one array per column");
+        if (rows == 0) return;
+        var chunks = new List<ChunkMeta>(_columns.Count);
+        for (int c = 0; c < _columns.Count; c++)
+        {
+            var col = _columns[c];
+            long offset = _pos, unc = 0, comp = 0;
+            for (int start = 0; start < rows; start += RowsPerPage)
+            {
+                int n = Math.Min(RowsPerPage, rows - start);
+                int len = col.Type switch
+                {
+                    FlatType.String => EncodeStrings((string?[])data[c], start, n, col.Nullable),
+                    FlatType.Int32 => EncodeFixed<int>((int[])data[c], start, n),
+                    _ => EncodeFixed<long>((long[])data[c], start, n),
+                };
+                var (u, z) = WritePage(len, n);
+                unc += u;
+                comp += z;
+            }
+            chunks.Add(new ChunkMeta(offset, rows, unc, comp));
+        }
+        _groups.Add(new RowGroupMeta(rows, chunks));
+        _rows += rows;
+    }
+
+    private int EncodeFixed<T>(T[] values, int start, int n) where T : unmanaged
+    {
+        var src = System.Runtime.InteropServices.MemoryMarshal.AsBytes(values.AsSpan(start, n));
+        Ensure(ref _page, src.Length);
+        src.CopyTo(_page);
+        return src.Length; // PLAIN: little-endian values (this library runs on little-endian machines only)
+    }
+
+    private int EncodeStrings(string?[] values, int start, int n, bool nullable)
+    {
+        int pos = 0;
+        if (nullable)
+        {
+            // definition levels: 4-byte length, then the RLE/bit-packed hybrid with runs only (bit width 1)
+            Ensure(ref _page, 4 + 6 * n + 16);
+            int lenPos = pos;
+            pos += 4;
+            int i = 0;
+            while (i < n)
+            {
+                bool present = values[start + i] is not null;
+                int run = 1;
+                while (i + run < n && (values[start + i + run] is not null) == present) run++;
+                pos = WriteUVarint(_page, pos, (ulong)run << 1);
+                _page[pos++] = present ? (byte)1 : (byte)0;
+                i += run;
+            }
+            BinaryPrimitives.WriteInt32LittleEndian(_page.AsSpan(lenPos), pos - lenPos - 4);
+        }
+        for (int i = 0; i < n; i++)
+        {
+            var v = values[start + i];
+            if (v is null)
+            {
+                if (!nullable) throw new InvalidOperationException("null in a required column");
+                continue;
+            }
+            int max = Encoding.UTF8.GetMaxByteCount(v.Length);
+            Ensure(ref _page, pos + 4 + max);
+            int w = Encoding.UTF8.GetBytes(v, _page.AsSpan(pos + 4));
+            BinaryPrimitives.WriteInt32LittleEndian(_page.AsSpan(pos), w);
+            pos += 4 + w;
+        }
+        return pos;
+    }
+
+    private (long Uncompressed, long Compressed) WritePage(int len, int values)
+    {
+        Ensure(ref _packed, Compressor.GetCompressBound(len));
+        int z = _zstd.Wrap(_page.AsSpan(0, len), _packed);
+        var h = new ThriftCompactWriter();
+        h.I32(1, 0);            // type: DATA_PAGE
+        h.I32(2, len);          // uncompressed_page_size
+        h.I32(3, z);            // compressed_page_size
+        h.BeginStruct(5);       // data_page_header
+        h.I32(1, values);       // num_values
+        h.I32(2, 0);            // encoding: PLAIN
+        h.I32(3, 3);            // definition_level_encoding: RLE
+        h.I32(4, 3);            // repetition_level_encoding: RLE
+        h.EndStruct();
+        h.Stop();
+        var header = h.ToSpan();
+        Write(header);
+        Write(_packed.AsSpan(0, z));
+        return (header.Length + len, header.Length + z);
+    }
+
+    /// <summary>Writes the footer (FileMetaData, its length, the magic). Call once, after the last row group.</summary>
+    public void Finish()
+    {
+        var m = new ThriftCompactWriter();
+        m.I32(1, 1);                                         // version
+        m.BeginList(2, ThriftCompactWriter.Struct, _columns.Count + 1); // schema
+        m.BeginElement();
+        m.String(4, "schema");
+        m.I32(5, _columns.Count);                            // num_children
+        m.EndStruct();
+        foreach (var c in _columns)
+        {
+            m.BeginElement();
+            m.I32(1, (int)c.Type);
+            m.I32(3, c.Nullable ? 1 : 0);                    // repetition_type: OPTIONAL / REQUIRED
+            m.String(4, c.Name);
+            if (c.Type == FlatType.String)
+            {
+                m.I32(6, 0);                                 // converted_type: UTF8
+                m.BeginStruct(10);                           // logicalType
+                m.BeginStruct(1);                            //   STRING
+                m.EndStruct();
+                m.EndStruct();
+            }
+            m.EndStruct();
+        }
+        m.I64(3, _rows);                                     // num_rows
+        m.BeginList(4, ThriftCompactWriter.Struct, _groups.Count);
+        foreach (var g in _groups)
+        {
+            m.BeginElement();
+            m.BeginList(1, ThriftCompactWriter.Struct, g.Chunks.Count);
+            long total = 0, totalComp = 0;
+            for (int c = 0; c < g.Chunks.Count; c++)
+            {
+                var ch = g.Chunks[c];
+                total += ch.Uncompressed;
+                totalComp += ch.Compressed;
+                m.BeginElement();
+                m.I64(2, ch.Offset);                         // file_offset
+                m.BeginStruct(3);                            // meta_data
+                m.I32(1, (int)_columns[c].Type);
+                m.BeginList(2, ThriftCompactWriter.I32Type, 2); // encodings: PLAIN, RLE
+                m.ListI32(0);
+                m.ListI32(3);
+                m.BeginList(3, ThriftCompactWriter.Binary, 1);  // path_in_schema
+                m.ListString(_columns[c].Name);
+                m.I32(4, 6);                                 // codec: ZSTD
+                m.I64(5, ch.Values);                         // num_values
+                m.I64(6, ch.Uncompressed);                   // total_uncompressed_size
+                m.I64(7, ch.Compressed);                     // total_compressed_size
+                m.I64(9, ch.Offset);                         // data_page_offset
+                m.EndStruct();
+                m.EndStruct();
+            }
+            m.I64(2, total);                                 // total_byte_size
+            m.I64(3, g.Rows);                                // num_rows
+            if (g.Chunks.Count > 0)
+            {
+                m.I64(5, g.Chunks[0].Offset);                // file_offset
+                m.I64(6, totalComp);                         // total_compressed_size
+            }
+            m.EndStruct();
+        }
+        if (Metadata.Count > 0)
+        {
+            m.BeginList(5, ThriftCompactWriter.Struct, Metadata.Count);
+            foreach (var (k, v) in Metadata)
+            {
+                m.BeginElement();
+                m.String(1, k);
+                m.String(2, v);
+                m.EndStruct();
+            }
+        }
+        m.String(6, CreatedBy);
+        m.Stop();
+        var footer = m.ToSpan();
+        Write(footer);
+        Span<byte> tail = stackalloc byte[8];
+        BinaryPrimitives.WriteInt32LittleEndian(tail, footer.Length);
+        "PAR1"u8.CopyTo(tail[4..]);
+        Write(tail);
+        _out.Flush();
+    }
+
+    private void Write(ReadOnlySpan<byte> b)
+    {
+        _out.Write(b);
+        _pos += b.Length;
+    }
+
+    /// <summary>Grows a buffer, keeping its contents.</summary>
+    private static void Ensure(ref byte[] buf, int n)
+    {
+        if (buf.Length < n) Array.Resize(ref buf, Math.Max(n, buf.Length * 2));
+    }
+
+    internal static int WriteUVarint(byte[] buf, int pos, ulong v)
+    {
+        while (v >= 0x80)
+        {
+            buf[pos++] = (byte)(v | 0x80);
+            v >>= 7;
+        }
+        buf[pos++] = (byte)v;
+        return pos;
+    }
+
+    public void Dispose() => _zstd.Dispose();
+}
+
+/// <summary>
+/// The Thrift compact protocol, writing side, for the few shapes Parquet metadata needs: i32, i64, binary fields,
+/// nested structs and lists (field headers carry the id delta when it is 1–15; integers are zigzag varints).
+/// </summary>
+internal sealed class ThriftCompactWriter
+{
+    internal const byte I32Type = 5, I64Type = 6, Binary = 8, List = 9, Struct = 12;
+    private byte[] _buf = new byte[256];
+    private int _len;
+    private readonly Stack<short> _last = new();
+    private short _lastId;
+
+    public ReadOnlySpan<byte> ToSpan() => _buf.AsSpan(0, _len);
+
+    public void I32(short id, int v) { Field(id, I32Type); ZigZag(v); }
+    public void I64(short id, long v) { Field(id, I64Type); ZigZag(v); }
+    public void String(short id, string v) { Field(id, Binary); Bytes(v); }
+
+    public void BeginStruct(short id)
+    {
+        Field(id, Struct);
+        _last.Push(_lastId);
+        _lastId = 0;
+    }
+
+    /// <summary>Starts a struct that is a list element (no field header).</summary>
+    public void BeginElement()
+    {
+        _last.Push(_lastId);
+        _lastId = 0;
+    }
+
+    public void EndStruct()
+    {
+        Byte(0);
+        _lastId = _last.Pop();
+    }
+
+    public void Stop() => Byte(0);
+
+    public void BeginList(short id, byte elementType, int count)
+    {
+        Field(id, List);
+        if (count < 15) Byte((byte)((count << 4) | elementType));
+        else
+        {
+            Byte((byte)(0xF0 | elementType));
+            UVarint((ulong)count);
+        }
+    }
+
+    public void ListI32(int v) => ZigZag(v);
+    public void ListString(string v) => Bytes(v);
+
+    private void Field(short id, byte type)
+    {
+        int delta = id - _lastId;
+        if (delta > 0 && delta <= 15) Byte((byte)((delta << 4) | type));
+        else
+        {
+            Byte(type);
+            ZigZag(id);
+        }
+        _lastId = id;
+    }
+
+    private void Bytes(string v)
+    {
+        int n = Encoding.UTF8.GetByteCount(v);
+        UVarint((ulong)n);
+        Grow(n);
+        _len += Encoding.UTF8.GetBytes(v, _buf.AsSpan(_len));
+    }
+
+    private void ZigZag(long v) => UVarint((ulong)((v << 1) ^ (v >> 63)));
+
+    private void UVarint(ulong v)
+    {
+        Grow(10);
+        _len = FlatParquetWriter.WriteUVarint(_buf, _len, v);
+    }
+
+    private void Byte(byte b)
+    {
+        Grow(1);
+        _buf[_len++] = b;
+    }
+
+    private void Grow(int n)
+    {
+        if (_len + n > _buf.Length) Array.Resize(ref _buf, Math.Max(_len + n, _buf.Length * 2));
+    }
+}
