@@ -28,7 +28,8 @@ public static class CountEngine
             files = files.Where((_, i) => i % settings.ShardCount == settings.ShardIndex - 1).ToList();
         }
         int threads = settings.EffectiveThreads;
-        var units = InputPlanner.Plan(files, tokenizer.RangeCut, threads, settings.SplitAboveBytes);
+        // more ranges than threads, handed out one at a time, so a slow range does not leave a core idle at the end
+        var units = InputPlanner.Plan(files, tokenizer.RangeCut, threads > 1 ? threads * 4 : 1, settings.SplitAboveBytes);
         long totalBytes = files.Sum(f => f.Length);
         var unitTokens = new long[units.Count];
         var spill = new SpillSet(settings.TempDirectory);
@@ -172,18 +173,17 @@ public static class CountEngine
 
         public void Write(ReadOnlySpan<byte> utf8, bool endOfDocument) => _session.Feed(utf8, endOfDocument);
 
-        [MethodImpl(MethodImplOptions.AggressiveOptimization)]
         public void AddToken(ReadOnlySpan<byte> utf8)
         {
             Table.Add(utf8, 1, TokenTable.PackPosition(_unit, _pos));
             if ((++_pos & 0xFFFF) == 0 && Table.MemoryBytes > _budget) _spill.Spill(Table);
         }
 
-        [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-        public void AddShortToken(ulong lo, ulong hi, int length)
+        public void AddPackedTokens(ReadOnlySpan<PackedToken> tokens)
         {
-            Table.AddShort(lo, hi, length, TokenTable.PackPosition(_unit, _pos));
-            if ((++_pos & 0xFFFF) == 0 && Table.MemoryBytes > _budget) _spill.Spill(Table);
+            Table.AddPacked(tokens, TokenTable.PackPosition(_unit, _pos));
+            _pos += tokens.Length;
+            if (Table.MemoryBytes > _budget) _spill.Spill(Table);
         }
 
         public void AddId(int id)

@@ -42,11 +42,16 @@ public sealed record GrowthCurve(long[] Tokens, long[] Types)
     /// <summary>About <paramref name="points"/> log-spaced checkpoints from 1 to <paramref name="total"/>, always ending at the total.</summary>
     public static long[] Checkpoints(long total, int points = 200)
     {
-        var s = new SortedSet<long>();
         if (total <= 0) return [];
-        for (int i = 0; i <= points; i++) s.Add(Math.Max(1, (long)Math.Round(Math.Pow(total, i / (double)points))));
-        s.Add(total);
-        return s.ToArray();
+        var s = new long[points + 2];
+        int n = 0;
+        // total^(i/points) rises with i, so duplicates are adjacent
+        for (int i = 0; i <= points + 1; i++)
+        {
+            long c = i > points ? total : Math.Min(total, Math.Max(1, (long)Math.Round(Math.Pow(total, i / (double)points))));
+            if (n == 0 || c > s[n - 1]) s[n++] = c;
+        }
+        return s[..n];
     }
 }
 

@@ -131,17 +131,18 @@ internal static class RankBuilder
     /// <summary>The spectrum of counts sorted in descending order, by run lengths.</summary>
     internal static FrequencySpectrum SpectrumOfRanked(long[] counts)
     {
-        var values = new List<long>();
-        var types = new List<long>();
+        var values = new long[counts.Length];
+        var types = new long[counts.Length];
+        int n = 0;
         for (int i = counts.Length - 1; i >= 0;)
         {
             int j = i;
             while (j > 0 && counts[j - 1] == counts[i]) j--;
-            values.Add(counts[i]);
-            types.Add(i - j + 1);
+            values[n] = counts[i];
+            types[n++] = i - j + 1;
             i = j - 1;
         }
-        return new FrequencySpectrum(values.ToArray(), types.ToArray());
+        return new FrequencySpectrum(values[..n], types[..n]);
     }
 
     /// <summary>Rank-ordered rows merged from rank-sorted runs on disk; can be read once; dispose removes the runs.</summary>

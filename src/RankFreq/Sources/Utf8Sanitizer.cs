@@ -39,7 +39,6 @@ internal sealed class Utf8Sanitizer(ITextSink sink)
     /// <summary>Call at the start of each new file so a byte-order mark there is skipped.</summary>
     public void Reset() { _atStart = true; _holdLen = 0; }
 
-    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private void Process(ReadOnlySpan<byte> s, bool final)
     {
         if (_atStart)

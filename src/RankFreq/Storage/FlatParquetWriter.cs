@@ -266,7 +266,8 @@ internal sealed class ThriftCompactWriter
     internal const byte I32Type = 5, I64Type = 6, Binary = 8, List = 9, Struct = 12;
     private byte[] _buf = new byte[256];
     private int _len;
-    private readonly Stack<short> _last = new();
+    private readonly short[] _last = new short[16]; // enclosing structs' last field ids (metadata nests 4 deep)
+    private int _depth;
     private short _lastId;
 
     public ReadOnlySpan<byte> ToSpan() => _buf.AsSpan(0, _len);
@@ -278,21 +279,21 @@ internal sealed class ThriftCompactWriter
     public void BeginStruct(short id)
     {
         Field(id, Struct);
-        _last.Push(_lastId);
+        _last[_depth++] = _lastId;
         _lastId = 0;
     }
 
     /// <summary>Starts a struct that is a list element (no field header).</summary>
     public void BeginElement()
     {
-        _last.Push(_lastId);
+        _last[_depth++] = _lastId;
         _lastId = 0;
     }
 
     public void EndStruct()
     {
         Byte(0);
-        _lastId = _last.Pop();
+        _lastId = _last[--_depth];
     }
 
     public void Stop() => Byte(0);

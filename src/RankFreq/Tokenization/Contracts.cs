@@ -7,21 +7,32 @@ public interface ITokenSink
     void AddToken(ReadOnlySpan<byte> utf8);
 
     /// <summary>
-    /// One occurrence of a token of 1 to 16 bytes, packed: <paramref name="lo"/> holds bytes 0–7 and
-    /// <paramref name="hi"/> bytes 8–15, little-endian, zero past <paramref name="length"/>. A hot-path form of
-    /// <see cref="AddToken"/> that lets a counter hash and compare the token as two words without reading it again.
+    /// Occurrences of tokens of 1 to 16 bytes each, in corpus order, packed as <see cref="PackedToken"/>s: a hot-path
+    /// form of <see cref="AddToken"/> that lets a counter hash and compare each token as two words, a batch at a time.
     /// </summary>
-    void AddShortToken(ulong lo, ulong hi, int length)
+    void AddPackedTokens(ReadOnlySpan<PackedToken> tokens)
     {
         Span<byte> b = stackalloc byte[16];
-        System.Buffers.Binary.BinaryPrimitives.WriteUInt64LittleEndian(b, lo);
-        System.Buffers.Binary.BinaryPrimitives.WriteUInt64LittleEndian(b[8..], hi);
-        AddToken(b[..length]);
+        foreach (var t in tokens)
+        {
+            System.Buffers.Binary.BinaryPrimitives.WriteUInt64LittleEndian(b, t.Lo);
+            System.Buffers.Binary.BinaryPrimitives.WriteUInt64LittleEndian(b[8..], t.Hi);
+            AddToken(b[..t.Length]);
+        }
     }
 
     /// <summary>One occurrence of a subword token given by its vocabulary id.</summary>
     void AddId(int id);
 }
+
+/// <summary>
+/// A token of 1 to 16 UTF-8 bytes: <see cref="Lo"/> holds bytes 0–7 and <see cref="Hi"/> bytes 8–15, little-endian,
+/// zero past <see cref="Length"/>.
+/// </summary>
+/// <param name="Lo">Bytes 0–7.</param>
+/// <param name="Hi">Bytes 8–15.</param>
+/// <param name="Length">Length in bytes (1–16).</param>
+public readonly record struct PackedToken(ulong Lo, ulong Hi, int Length);
 
 /// <summary>Stateful tokenizer for one worker: text arrives in blocks; a token never breaks at a block edge.</summary>
 public interface ITokenizerSession

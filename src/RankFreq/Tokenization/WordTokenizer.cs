@@ -134,6 +134,7 @@ public sealed class WordTokenizer(bool keepCase) : ITokenizer
         {
             if (vectorized) ProcessVector(s, eod);
             else Scalar(s, 0, eod, false);
+            if (_batchLen > 0) Flush();
         }
 
         /// <summary>
@@ -274,7 +275,19 @@ public sealed class WordTokenizer(bool keepCase) : ITokenizer
             if (!keepCase)
                 v |= Vector128.LessThanOrEqual(v - Vector128.Create((byte)'A'), Vector128.Create((byte)25)) & Vector128.Create((byte)0x20);
             var u = v.AsUInt64();
-            sink.AddShortToken(u.GetElement(0), u.GetElement(1), len);
+            _batch[_batchLen++] = new PackedToken(u.GetElement(0), u.GetElement(1), len);
+            if (_batchLen == _batch.Length) Flush();
+        }
+
+        // packed tokens wait here and go to the sink a batch at a time; any other emission flushes first, so the
+        // sink still sees corpus order
+        private readonly PackedToken[] _batch = new PackedToken[512];
+        private int _batchLen;
+
+        private void Flush()
+        {
+            sink.AddPackedTokens(_batch.AsSpan(0, _batchLen));
+            _batchLen = 0;
         }
 
         [MethodImpl(MethodImplOptions.NoInlining)]
@@ -285,7 +298,6 @@ public sealed class WordTokenizer(bool keepCase) : ITokenizer
         /// as it is outside a token just after a plain ASCII separator (where the vectorised path can resume);
         /// otherwise, or when it holds a token back for the next block, it returns <c>s.Length</c>.
         /// </summary>
-        [MethodImpl(MethodImplOptions.AggressiveOptimization)]
         private int Scalar(ReadOnlySpan<byte> s, int from, bool eod, bool stopEarly)
         {
             int n = s.Length, i = from, start = -1;
@@ -420,9 +432,9 @@ public sealed class WordTokenizer(bool keepCase) : ITokenizer
             Emit(tok, false, !keepCase && tok.ContainsAnyInRange((byte)'A', (byte)'Z'));
         }
 
-        [MethodImpl(MethodImplOptions.AggressiveOptimization)]
         private void Emit(ReadOnlySpan<byte> tok, bool nonAscii, bool upper)
         {
+            if (_batchLen > 0) Flush();
             if (!nonAscii)
             {
                 if (keepCase || !upper) { sink.AddToken(tok); return; }
