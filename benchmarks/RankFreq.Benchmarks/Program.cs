@@ -61,6 +61,25 @@ if (args.Length > 2 && args[0] == "write-cold")
     Console.WriteLine($"{rows} rows, {args[2]}{(args.Length < 4 ? "" : " no-dict")}: {sw.Elapsed.TotalSeconds:F3} s");
     return;
 }
+if (args.Length > 0 && args[0] == "load-vocab")
+{
+    // the stages of loading o200k_base from the embedded data, cold process
+    var sw = Stopwatch.StartNew();
+    var data = System.Reflection.Assembly.Load("Microsoft.ML.Tokenizers.Data.O200kBase");
+    string res = data.GetManifestResourceNames().First(n => n.EndsWith("o200k_base.tiktoken.deflate", StringComparison.Ordinal));
+    var raw = new MemoryStream();
+    using (var s0 = data.GetManifestResourceStream(res)!)
+    using (var inflate = new System.IO.Compression.DeflateStream(s0, System.IO.Compression.CompressionMode.Decompress)) inflate.CopyTo(raw);
+    double tInflate = sw.Elapsed.TotalSeconds; sw.Restart();
+    var b64 = SubwordTokenizer.ParseTiktokenBase64(raw.ToArray());
+    double tParse = sw.Elapsed.TotalSeconds; sw.Restart();
+    raw.Position = 0;
+    var tok = Microsoft.ML.Tokenizers.TiktokenTokenizer.Create(raw, null, normalizer: null, specialTokens: null);
+    double tCreate = sw.Elapsed.TotalSeconds; sw.Restart();
+    var ids = tok.EncodeToIds("hello world", false, false);
+    Console.WriteLine($"inflate {tInflate:F3} s; our base64 parse {tParse:F3} s ({b64.Length:N0}); TiktokenTokenizer.Create {tCreate:F3} s; first encode {sw.Elapsed.TotalSeconds:F3} s");
+    return;
+}
 if (args.Length > 1 && args[0] == "count-phases")
 {
     // where a whole `count` goes, in process: counting (2 threads), then the Parquet write, twice each

@@ -29,7 +29,7 @@ public static class CountEngine
         }
         int threads = settings.EffectiveThreads;
         // more ranges than threads, handed out one at a time, so a slow range does not leave a core idle at the end
-        var units = InputPlanner.Plan(files, tokenizer.RangeCut, threads > 1 ? threads * 4 : 1, settings.SplitAboveBytes);
+        var units = InputPlanner.Plan(files, tokenizer.RangeCut, threads > 1 ? threads * 8 : 1, settings.SplitAboveBytes);
         long totalBytes = files.Sum(f => f.Length);
         var unitTokens = new long[units.Count];
         var spill = new SpillSet(settings.TempDirectory);
@@ -190,6 +190,16 @@ public static class CountEngine
         {
             if (IdCounts![id]++ == 0) IdFirst![id] = TokenTable.PackPosition(_unit, _pos);
             _pos++;
+        }
+
+        public void AddIds(ReadOnlySpan<int> ids)
+        {
+            long[] counts = IdCounts!;
+            foreach (int id in ids)
+            {
+                if (counts[id]++ == 0) IdFirst![id] = TokenTable.PackPosition(_unit, _pos);
+                _pos++;
+            }
         }
     }
 }

@@ -1,89 +1,127 @@
+using System.IO.Hashing;
 using System.Runtime.CompilerServices;
 using System.Runtime.InteropServices;
+using RankFreq.Counting;
 
 namespace RankFreq.Tokenization;
 
 /// <summary>
-/// Distinct chunk → its token ids: open addressing on a fast hash of the chunk's UTF-16 code units, with chunks and
-/// ids kept in two growable arenas (no string or array allocated per chunk). Cleared when it reaches its size limit,
-/// which only costs re-encoding.
+/// Distinct chunk → its token ids: open addressing (linear probing, load at most 1/2) over slots that hold a chunk of
+/// up to 8 UTF-16 code units inline as two packed words, so a hit on a short chunk reads one slot and no arena.
+/// Longer chunks keep their 64-bit hash in the slot and are compared against a key arena; ids live in an id arena.
+/// Cleared when it reaches its size limit, which only costs re-encoding.
 /// </summary>
 internal sealed class ChunkCache(int maxEntries)
 {
-    private struct Entry { public int KeyStart, KeyLen, IdStart, IdLen; }
+    private struct Slot
+    {
+        public ulong K0, K1;   // packed chunk (≤ 8 code units), or K0 = hash
+        public int Len;        // code units; 0 = empty (chunks are never empty)
+        public int IdStart, IdLen;
+        public int KeyStart;   // long chunks: start in the key arena
+    }
 
-    private ulong[] _buckets = new ulong[1 << 14];
-    private Entry[] _entries = new Entry[1 << 13];
+    private const int InitialSlots = 1 << 14;
+    private Slot[] _slots = new Slot[InitialSlots];
     private int _count;
     private char[] _keys = new char[1 << 16];
     private int _keyLen;
     private int[] _ids = new int[1 << 15];
     private int _idLen;
 
-    /// <summary>The ids cached for <paramref name="chunk"/>, or false.</summary>
+    /// <summary>Distinct chunks held.</summary>
+    public int Count => _count;
+
+    /// <summary>The ids cached for <paramref name="chunk"/>, or false and the slot where <see cref="Add"/> puts it.</summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-    public bool TryGet(ReadOnlySpan<char> chunk, out ReadOnlySpan<int> ids, out int bucket, out uint tag)
+    public bool TryGet(ReadOnlySpan<char> chunk, out ReadOnlySpan<int> ids, out int slot)
     {
-        ulong h = Counting.TokenTable.Hash(MemoryMarshal.AsBytes(chunk));
-        tag = (uint)(h >> 32);
-        int mask = _buckets.Length - 1;
-        int b = (int)h & mask;
+        var bytes = MemoryMarshal.AsBytes(chunk);
+        ulong k0, k1, h;
+        bool isShort = chunk.Length <= 8;
+        if (isShort)
+        {
+            TokenTable.Pack16(bytes, out k0, out k1);
+            h = TokenTable.Mix(k0, k1, chunk.Length);
+        }
+        else
+        {
+            h = XxHash3.HashToUInt64(bytes);
+            k0 = h;
+            k1 = 0;
+        }
+        int mask = _slots.Length - 1;
+        int i = (int)h & mask;
+        ref Slot s0 = ref MemoryMarshal.GetArrayDataReference(_slots);
         while (true)
         {
-            ulong slot = _buckets[b];
-            if (slot == 0) break;
-            if ((uint)(slot >> 32) == tag)
+            ref Slot s = ref Unsafe.Add(ref s0, i);
+            if (s.Len == 0) break;
+            if (s.K0 == k0 && s.K1 == k1 && s.Len == chunk.Length &&
+                (isShort || _keys.AsSpan(s.KeyStart, s.Len).SequenceEqual(chunk)))
             {
-                ref Entry e = ref _entries[(int)(uint)slot - 1];
-                if (e.KeyLen == chunk.Length && _keys.AsSpan(e.KeyStart, e.KeyLen).SequenceEqual(chunk))
-                {
-                    ids = _ids.AsSpan(e.IdStart, e.IdLen);
-                    bucket = b;
-                    return true;
-                }
+                ids = _ids.AsSpan(s.IdStart, s.IdLen);
+                slot = i;
+                return true;
             }
-            b = (b + 1) & mask;
+            i = (i + 1) & mask;
         }
         ids = default;
-        bucket = b;
+        slot = i;
         return false;
     }
 
-    /// <summary>Adds a chunk that <see cref="TryGet"/> did not find (at the bucket it returned).</summary>
-    public void Add(ReadOnlySpan<char> chunk, IReadOnlyList<int> ids, int bucket, uint tag)
+    /// <summary>Adds a chunk that <see cref="TryGet"/> did not find (at the slot it returned); returns the cached ids.</summary>
+    public ReadOnlySpan<int> Add(ReadOnlySpan<char> chunk, IReadOnlyList<int> ids, int slot)
     {
-        if (_count >= maxEntries) { Clear(); TryGet(chunk, out _, out bucket, out tag); }
-        if (_keyLen + chunk.Length > _keys.Length) Array.Resize(ref _keys, Math.Max(_keys.Length * 2, _keyLen + chunk.Length));
+        if (_count >= maxEntries || _count * 2 >= _slots.Length)
+        {
+            if (_count >= maxEntries) Clear();
+            else Grow();
+            TryGet(chunk, out _, out slot);
+        }
         if (_idLen + ids.Count > _ids.Length) Array.Resize(ref _ids, Math.Max(_ids.Length * 2, _idLen + ids.Count));
-        if (_count == _entries.Length) Array.Resize(ref _entries, _count * 2);
-        chunk.CopyTo(_keys.AsSpan(_keyLen));
         for (int i = 0; i < ids.Count; i++) _ids[_idLen + i] = ids[i];
-        _entries[_count] = new Entry { KeyStart = _keyLen, KeyLen = chunk.Length, IdStart = _idLen, IdLen = ids.Count };
-        _keyLen += chunk.Length;
+        ref Slot s = ref _slots[slot];
+        s.Len = chunk.Length;
+        s.IdStart = _idLen;
+        s.IdLen = ids.Count;
+        if (chunk.Length <= 8)
+        {
+            TokenTable.Pack16(MemoryMarshal.AsBytes(chunk), out s.K0, out s.K1);
+        }
+        else
+        {
+            if (_keyLen + chunk.Length > _keys.Length) Array.Resize(ref _keys, Math.Max(_keys.Length * 2, _keyLen + chunk.Length));
+            chunk.CopyTo(_keys.AsSpan(_keyLen));
+            s.K0 = XxHash3.HashToUInt64(MemoryMarshal.AsBytes(chunk));
+            s.K1 = 0;
+            s.KeyStart = _keyLen;
+            _keyLen += chunk.Length;
+        }
         _idLen += ids.Count;
         _count++;
-        _buckets[bucket] = ((ulong)tag << 32) | (uint)_count;
-        if (_count * 2 > _buckets.Length) Rehash();
+        return _ids.AsSpan(s.IdStart, s.IdLen);
     }
 
-    private void Rehash()
+    private void Grow()
     {
-        var nb = new ulong[_buckets.Length * 2];
-        int mask = nb.Length - 1;
-        for (int i = 0; i < _count; i++)
+        var ns = new Slot[_slots.Length * 2];
+        int mask = ns.Length - 1;
+        foreach (ref readonly var s in _slots.AsSpan())
         {
-            var e = _entries[i];
-            ulong h = Counting.TokenTable.Hash(MemoryMarshal.AsBytes(_keys.AsSpan(e.KeyStart, e.KeyLen)));
-            int b = (int)h & mask;
-            while (nb[b] != 0) b = (b + 1) & mask;
-            nb[b] = ((h >> 32) << 32) | (uint)(i + 1);
+            if (s.Len == 0) continue;
+            ulong h = s.Len <= 8 ? TokenTable.Mix(s.K0, s.K1, s.Len) : s.K0;
+            int i = (int)h & mask;
+            while (ns[i].Len != 0) i = (i + 1) & mask;
+            ns[i] = s;
         }
-        _buckets = nb;
+        _slots = ns;
     }
 
     private void Clear()
     {
-        Array.Clear(_buckets);
+        Array.Clear(_slots);
         _count = 0; _keyLen = 0; _idLen = 0;
     }
 }

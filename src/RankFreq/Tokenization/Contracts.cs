@@ -23,6 +23,12 @@ public interface ITokenSink
 
     /// <summary>One occurrence of a subword token given by its vocabulary id.</summary>
     void AddId(int id);
+
+    /// <summary>Occurrences of subword tokens given by their vocabulary ids, in order (one call per chunk).</summary>
+    void AddIds(ReadOnlySpan<int> ids)
+    {
+        foreach (int id in ids) AddId(id);
+    }
 }
 
 /// <summary>

@@ -88,7 +88,9 @@ public sealed class SubwordTokenizer : ITokenizer
         using (var inflate = new DeflateStream(s, CompressionMode.Decompress))
             inflate.CopyTo(raw);
 
-        var base64 = ParseTiktokenBase64(raw.ToArray());
+        // our id → bytes table is parsed beside the library's own load (it has no public id → bytes map)
+        var file = raw.ToArray();
+        var parse = Task.Run(() => ParseTiktokenBase64(file));
         // The pre-tokenizer regex without special-token splitting. Building the library's own tokenizer just to read
         // its regex would load the vocabulary a second time, so the patterns are kept here; a test checks them
         // against the library's. o200k_base counting uses the hand-written splitter instead of the regex.
@@ -96,6 +98,7 @@ public sealed class SubwordTokenizer : ITokenizer
         var pre = new RegexPreTokenizer(new Regex(pattern, encoding == "o200k_base" ? RegexOptions.None : RegexOptions.Compiled), null);
         raw.Position = 0;
         var tok = TiktokenTokenizer.Create(raw, pre, normalizer: null, specialTokens: null);
+        var base64 = parse.GetAwaiter().GetResult();
         return new SubwordTokenizer(encoding, tok, pre, new string[base64.Length], encoding == "o200k_base", base64);
     }
 
@@ -284,14 +287,9 @@ public sealed class SubwordTokenizer : ITokenizer
         private void EncodeChunk(ReadOnlySpan<char> chunk)
         {
             if (chunk.IsEmpty) return;
-            if (!_cache.TryGet(chunk, out var ids, out int bucket, out uint tag))
-            {
-                var list = owner._tokenizer.EncodeToIds(chunk, considerPreTokenization: false, considerNormalization: false);
-                _cache.Add(chunk, list, bucket, tag);
-                foreach (int id in list) sink.AddId(id);
-                return;
-            }
-            foreach (int id in ids) sink.AddId(id);
+            if (!_cache.TryGet(chunk, out var ids, out int slot))
+                ids = _cache.Add(chunk, owner._tokenizer.EncodeToIds(chunk, considerPreTokenization: false, considerNormalization: false), slot);
+            sink.AddIds(ids);
         }
     }
 }

@@ -84,6 +84,24 @@ public class CountingTests
     }
 
     [Fact]
+    public void Pack16EqualsAZeroPaddedCopy()
+    {
+        var rng = new Random(3);
+        for (int n = 0; n <= 16; n++)
+            for (int rep = 0; rep < 50; rep++)
+            {
+                var buf = new byte[n + 8];
+                rng.NextBytes(buf);
+                var k = buf.AsSpan(4, n); // bytes on both sides must not leak in
+                var pad = new byte[16];
+                k.CopyTo(pad);
+                TokenTable.Pack16(k, out ulong a, out ulong b);
+                Assert.Equal(BitConverter.ToUInt64(pad, 0), a);
+                Assert.Equal(BitConverter.ToUInt64(pad, 8), b);
+            }
+    }
+
+    [Fact]
     public void RankAndKeyOrdersMatchAPlainOrdinalSort()
     {
         // Reference: LINQ ordering with an ordinal byte comparison. Keys share 16-byte prefixes, end in zero bytes,
