@@ -1,5 +1,4 @@
 using System.CommandLine;
-using System.Text.Json;
 using RankFreq.Counting;
 using RankFreq.Storage;
 
@@ -26,7 +25,7 @@ internal static class CountVerb
                 var s = result.Summary;
                 await CountTableFile.WriteAsync(pr.GetValue(output)!, result.Rows, result.HasTokenIds, CountTableMetadata.From(s, pr.GetValue(common.RedactBelow)), ct);
                 foreach (var sk in s.SkippedFiles) stderr.WriteLine($"rankfreq: warning: skipped {sk.Path}: {sk.Reason}");
-                if (json) stdout.WriteLine(JsonSerializer.Serialize(SummaryJson(s), JsonOut.Options));
+                if (json) stdout.WriteLine(Reporting.JsonText.Write(SummaryJson(s)));
                 else if (!quiet) WriteSummary(stdout, s, pr.GetValue(output)!);
                 return CliApp.Ok;
             }
@@ -48,13 +47,4 @@ internal static class CountVerb
         if (s.SpilledRuns > 0) o.WriteLine($"  spilled to disk in {s.SpilledRuns} run(s)");
         o.WriteLine($"  table    {path}");
     }
-}
-
-internal static class JsonOut
-{
-    public static readonly JsonSerializerOptions Options = new()
-    {
-        WriteIndented = true,
-        NumberHandling = System.Text.Json.Serialization.JsonNumberHandling.AllowNamedFloatingPointLiterals,
-    };
 }

@@ -1,6 +1,5 @@
 using System.CommandLine;
 using System.Globalization;
-using System.Text.Json;
 using RankFreq.Counting;
 using RankFreq.Fitting;
 using RankFreq.Storage;
@@ -65,7 +64,7 @@ internal static class FitVerb
                 var fit = await Task.Run(() => TailFitter.Fit(spectrum, options, progress, ct), ct);
                 progress.Done();
                 if (pr.GetValue(output) is { } o) await FitTableFile.WriteAsync(o, [("all", fit)], ct);
-                if (pr.GetValue(json)) stdout.WriteLine(JsonSerializer.Serialize(FitJson(fit), JsonOut.Options));
+                if (pr.GetValue(json)) stdout.WriteLine(Reporting.JsonText.Write(FitJson(fit)));
                 else if (!pr.GetValue(quiet)) FitSummary.Write(stdout, fit, $"{pr.GetValue(input)}: {desc}, {spectrum.TypeCount:N0} types");
                 return CliApp.Ok;
             }

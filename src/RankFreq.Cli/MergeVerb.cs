@@ -1,5 +1,4 @@
 using System.CommandLine;
-using System.Text.Json;
 using RankFreq.Storage;
 
 namespace RankFreq.Cli;
@@ -21,7 +20,7 @@ internal static class MergeVerb
             {
                 var s = await TableMerge.MergeAsync(pr.GetValue(tables)!, pr.GetValue(output)!, CliApp.ParseSize(pr.GetValue(memory), "--memory"), pr.GetValue(temp), ct);
                 if (pr.GetValue(json))
-                    stdout.WriteLine(JsonSerializer.Serialize(new Dictionary<string, object> { ["tables"] = s.Tables, ["tokens"] = s.Tokens, ["types"] = s.Types, ["spilled_runs"] = s.SpilledRuns, ["seconds"] = Math.Round(s.Seconds, 3) }, JsonOut.Options));
+                    stdout.WriteLine(Reporting.JsonText.Write(new Dictionary<string, object> { ["tables"] = s.Tables, ["tokens"] = s.Tokens, ["types"] = s.Types, ["spilled_runs"] = s.SpilledRuns, ["seconds"] = Math.Round(s.Seconds, 3) }));
                 else if (!pr.GetValue(quiet))
                     stdout.WriteLine($"  merged {s.Tables} tables: {s.Tokens:N0} tokens, {s.Types:N0} types -> {pr.GetValue(output)}");
                 return CliApp.Ok;

@@ -266,6 +266,9 @@ internal sealed class TokenTable
     private void Rehash()
     {
         var ns = new Slot[_slots.Length * 2];
+        // Write every page before probing it: a fresh page that is read first maps the shared zero page, and the
+        // later write then costs a copy-on-write fault with a TLB flush on every core.
+        ns.AsSpan().Clear();
         int mask = ns.Length - 1;
         foreach (ref readonly var s in _slots.AsSpan())
         {

@@ -1,4 +1,3 @@
-using System.Text.Json;
 using RankFreq.Counting;
 using RankFreq.Fitting;
 using RankFreq.Lexical;
@@ -67,7 +66,7 @@ public static class ProfileJob
             "rare-type lists from private text can expose personal data; see --redact-below",
         };
         string summaryPath = Path.Combine(dir, "summary.json");
-        await AtomicFile.WriteTextAsync(summaryPath, JsonSerializer.Serialize(summary, new JsonSerializerOptions { WriteIndented = true }));
+        await AtomicFile.WriteTextAsync(summaryPath, JsonText.Write(summary));
 
         string title = s.Title ?? (inputs.Count == 1 ? Path.GetFileName(Path.TrimEndingDirectorySeparator(Path.GetFullPath(inputs[0]))) : $"{inputs.Count} inputs");
         string reportPath = Path.Combine(dir, "report.html");

@@ -107,6 +107,7 @@ internal sealed class ChunkCache(int maxEntries)
     private void Grow()
     {
         var ns = new Slot[_slots.Length * 2];
+        ns.AsSpan().Clear(); // write fresh pages before probing them (see TokenTable.Rehash)
         int mask = ns.Length - 1;
         foreach (ref readonly var s in _slots.AsSpan())
         {
