@@ -49,6 +49,20 @@ public static class Corpora
     }
 }
 
+/// <summary>The repository the test binaries were built from.</summary>
+public static class Repo
+{
+    public static string Root
+    {
+        get
+        {
+            var dir = new DirectoryInfo(AppContext.BaseDirectory);
+            while (dir is not null && !System.IO.File.Exists(System.IO.Path.Combine(dir.FullName, "RankFreq.sln"))) dir = dir.Parent;
+            return dir?.FullName ?? throw new InvalidOperationException("repository root not found above the test binaries");
+        }
+    }
+}
+
 /// <summary>A temporary folder removed at the end of a test.</summary>
 public sealed class TempDir : IDisposable
 {

@@ -39,17 +39,10 @@ public class ProfileTests
 
     internal static string DemoProfile(TempDir d)
     {
-        var demo = Path.Combine(FindRepo(), "corpora-demo");
+        var demo = Path.Combine(Repo.Root, "corpora-demo");
         var (code, _, e) = Cli.Run("profile", demo, "-o", d["demo"], "--reps", "100", "--ci-reps", "50", "-q");
         Assert.True(code == 0, e);
         return d["demo"];
-    }
-
-    private static string FindRepo()
-    {
-        var dir = new DirectoryInfo(AppContext.BaseDirectory);
-        while (dir is not null && !File.Exists(Path.Combine(dir.FullName, "RankFreq.sln"))) dir = dir.Parent;
-        return dir?.FullName ?? throw new InvalidOperationException("repository root not found above the test binaries");
     }
 
     [Fact]
