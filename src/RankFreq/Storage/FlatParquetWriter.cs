@@ -26,7 +26,7 @@ internal sealed class FlatParquetWriter : IDisposable
     private const int RowsPerPage = 1 << 16;
     private readonly Stream _out;
     private readonly IReadOnlyList<FlatColumn> _columns;
-    private readonly Compressor _zstd = new(3);
+    private readonly Compressor _zstd = new(1); // level 1: count tables are written once per run and read rarely
     private readonly List<RowGroupMeta> _groups = [];
     private long _pos;
     private long _rows;
