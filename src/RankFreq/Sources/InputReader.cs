@@ -79,7 +79,7 @@ public static class InputReader
                 reported = done;
                 if (last) break;
             }
-            if (crc is not null) CheckGzipTrailer(f.Path, counted, crc.GetCurrentHashAsUInt32(), pos);
+            if (crc is not null) CheckGzipTrailer(f, counted, crc.GetCurrentHashAsUInt32(), pos);
             sanitizer.Write([], true);
             stats.ReplacedBytes += sanitizer.ReplacedBytes;
             stats.StoredBytes += f.Compression == CompressionKind.None ? pos - unit.Start : counted.BytesRead;
@@ -88,17 +88,20 @@ public static class InputReader
     }
 
     /// <summary>
-    /// .NET's gzip decoder ends quietly on a truncated file, so the trailer (RFC 1952 §2.3.1: CRC-32 and size mod 2^32
-    /// of the last member) is checked against the decompressed data. A multi-member file fails this check unless it is
-    /// the trivial one-member case; such files must be decompressed first (a known limitation).
+    /// .NET's gzip decoder ends quietly on a truncated file, so the trailer (RFC 1952 §2.3.1: CRC-32 and size mod 2^32)
+    /// is checked: against the whole output for a one-member file, else against the file's last member
+    /// (<see cref="GzipMembers"/>). Standard input cannot be re-read, so there only one-member data can be verified.
     /// </summary>
-    private static void CheckGzipTrailer(string path, CountingStream raw, uint crc, long size)
+    private static void CheckGzipTrailer(InputFile f, CountingStream raw, uint crc, long size)
     {
         var t = raw.LastBytes;
         uint tCrc = System.Buffers.Binary.BinaryPrimitives.ReadUInt32LittleEndian(t);
         uint tSize = System.Buffers.Binary.BinaryPrimitives.ReadUInt32LittleEndian(t[4..]);
-        if (tCrc != crc || tSize != (uint)size)
-            throw new SourceException($"{path}: truncated or corrupt gzip data (the trailer's CRC-32/size do not match the {size} bytes decompressed; a file of several gzip members must be decompressed first)");
+        if (tCrc == crc && tSize == (uint)size) return;
+        if (f.IsStdin)
+            throw new SourceException($"{f.Path}: gzip data on standard input is truncated, corrupt or of several members (which can be verified only from a file); pass the file instead");
+        if (!GzipMembers.LastMemberVerifies(f.Path))
+            throw new SourceException($"{f.Path}: truncated or corrupt gzip data (the final CRC-32/size match no complete member; {size} bytes decompressed)");
     }
 
     private static bool IsDecoderFault(Exception e) =>

@@ -88,6 +88,41 @@ public class SourceTests
     }
 
     [Fact]
+    public void MultiMemberGzipCountsEveryMemberAndTruncationIsStillCaught()
+    {
+        // RFC 1952 §2.2: a gzip file may hold several members (cat a.gz b.gz; bgzip ends with an empty member).
+        using var d = new TempDir();
+        string a = Repeat(3000), b = "second member ünï " + Repeat(2000);
+        static byte[] Member(string text)
+        {
+            var ms = new MemoryStream();
+            using (var g = new GZipStream(ms, CompressionLevel.Optimal, leaveOpen: true)) g.Write(Encoding.UTF8.GetBytes(text));
+            return ms.ToArray();
+        }
+        byte[] m1 = Member(a), m2 = Member(b), empty = Member("");
+        File.WriteAllText(d["plain.txt"], a + b);
+        var whole = m1.Concat(m2).Concat(empty).ToArray();
+        File.WriteAllBytes(d["multi.gz"], whole);
+        using (var plain = CountEngine.Count([d["plain.txt"]], new CountSettings()))
+        using (var multi = CountEngine.Count([d["multi.gz"]], new CountSettings()))
+        {
+            Assert.Equal(plain.Summary.Tokens, multi.Summary.Tokens);
+            Assert.Equal(plain.Spectrum, multi.Spectrum);
+        }
+        File.WriteAllBytes(d["two.gz"], m1.Concat(m2).ToArray());
+        using (var two = CountEngine.Count([d["two.gz"]], new CountSettings())) Assert.True(two.Summary.Tokens > 5000);
+
+        // cut inside the second member, inside the first, and inside the last trailer
+        foreach (int cut in new[] { m1.Length + m2.Length / 2, m1.Length / 2, m1.Length + m2.Length - 3 })
+        {
+            string p = d[$"cut{cut}.gz"];
+            File.WriteAllBytes(p, m1.Concat(m2).Take(cut).ToArray());
+            var e = Assert.Throws<SourceException>(() => CountEngine.Count([p], new CountSettings()));
+            Assert.Contains(p, e.Message);
+        }
+    }
+
+    [Fact]
     public void JsonLinesNestedFieldMalformedAndStrict()
     {
         using var d = new TempDir();
