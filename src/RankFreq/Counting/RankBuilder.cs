@@ -76,11 +76,17 @@ internal static class RankBuilder
             for (int r = 0; r < idx.Length; r++)
             {
                 ref readonly var e = ref entries[idx[r]];
-                tokens[r] = Encoding.UTF8.GetString(main.Key(e));
                 counts[r] = e.Count;
                 if (ids is not null) ids[r] = e.Id;
                 growth.Add(e.First);
             }
+            // the strings, on all cores (reads only)
+            Parallel.For(0, (idx.Length + 8191) / 8192, part =>
+            {
+                var es = main.Entries;
+                for (int r = part * 8192, end = Math.Min(idx.Length, r + 8192); r < end; r++)
+                    tokens[r] = Encoding.UTF8.GetString(main.Key(es[idx[r]]));
+            });
             main.Clear();
             spill.Dispose();
             return (new InMemoryRows(tokens, ids, counts), SpectrumOfRanked(counts));

@@ -300,7 +300,7 @@ internal sealed class TokenTable
             keys[i] = new SortKey(byCount ? entries[i].Count : 0, BinaryPrimitives.ReadUInt64BigEndian(pad),
                 BinaryPrimitives.ReadUInt64BigEndian(pad[8..]), k.Length, i);
         }
-        new SortKeyComparer(this).Sort(keys, 0, keys.Length - 1);
+        new SortKeyComparer(this).SortParallel(keys);
         var idx = new int[keys.Length];
         for (int i = 0; i < idx.Length; i++) idx[i] = keys[i].Index;
         return idx;
@@ -329,27 +329,47 @@ internal sealed class TokenTable
             return t.Key(t._entries[x.Index]).SequenceCompareTo(t.Key(t._entries[y.Index]));
         }
 
+        /// <summary>Sorts; a large array is split by one partition step and its two sides sorted on two threads.</summary>
+        public void SortParallel(SortKey[] a)
+        {
+            int hi = a.Length - 1;
+            if (a.Length < 1 << 15 || Environment.ProcessorCount < 2)
+            {
+                Sort(a, 0, hi);
+                return;
+            }
+            var (j, i) = Partition(a, 0, hi);
+            var me = this;
+            Parallel.Invoke(() => me.Sort(a, 0, j), () => me.Sort(a, i, hi));
+        }
+
+        private (int J, int I) Partition(SortKey[] a, int lo, int hi)
+        {
+            int mid = lo + ((hi - lo) >> 1);
+            if (Compare(a[mid], a[lo]) < 0) (a[mid], a[lo]) = (a[lo], a[mid]);
+            if (Compare(a[hi], a[lo]) < 0) (a[hi], a[lo]) = (a[lo], a[hi]);
+            if (Compare(a[hi], a[mid]) < 0) (a[hi], a[mid]) = (a[mid], a[hi]);
+            var pivot = a[mid];
+            int i = lo, j = hi;
+            while (i <= j)
+            {
+                while (Compare(a[i], pivot) < 0) i++;
+                while (Compare(pivot, a[j]) < 0) j--;
+                if (i <= j)
+                {
+                    (a[i], a[j]) = (a[j], a[i]);
+                    i++;
+                    j--;
+                }
+            }
+            return (j, i);
+        }
+
         public void Sort(SortKey[] a, int lo, int hi)
         {
             while (hi - lo >= 24)
             {
-                int mid = lo + ((hi - lo) >> 1);
-                if (Compare(a[mid], a[lo]) < 0) (a[mid], a[lo]) = (a[lo], a[mid]);
-                if (Compare(a[hi], a[lo]) < 0) (a[hi], a[lo]) = (a[lo], a[hi]);
-                if (Compare(a[hi], a[mid]) < 0) (a[hi], a[mid]) = (a[mid], a[hi]);
-                var pivot = a[mid];
-                int i = lo, j = hi;
-                while (i <= j)
-                {
-                    while (Compare(a[i], pivot) < 0) i++;
-                    while (Compare(pivot, a[j]) < 0) j--;
-                    if (i <= j)
-                    {
-                        (a[i], a[j]) = (a[j], a[i]);
-                        i++;
-                        j--;
-                    }
-                }
+                var (j, i) = Partition(a, lo, hi);
                 if (j - lo < hi - i)
                 {
                     Sort(a, lo, j);
@@ -378,7 +398,38 @@ internal sealed class TokenTable
     /// <summary>Adds every entry of another table.</summary>
     public void MergeFrom(TokenTable other)
     {
-        foreach (ref readonly var e in other.Entries) Add(other.Key(e), e.Count, e.First, e.Id);
+        // straight from the other table's slots: short keys are already packed, so no key is read from its arena
+        foreach (ref readonly var o in other._slots.AsSpan())
+        {
+            if (o.Entry == 0) continue;
+            ref readonly var e = ref other._entries[o.Entry - 1];
+            if (o.Len > 16)
+            {
+                Add(other.Key(e), o.Count, e.First, e.Id);
+                continue;
+            }
+            ulong h = Mix(o.K0, o.K1, o.Len);
+            int mask = _slots.Length - 1;
+            int i = (int)h & mask;
+            while (true)
+            {
+                ref Slot s = ref _slots[i];
+                if (s.Entry == 0)
+                {
+                    Insert(ref s, o.K0, o.K1, other.Key(e), o.Count, e.First, e.Id);
+                    break;
+                }
+                if (s.K0 == o.K0 && s.K1 == o.K1 && s.Len == o.Len)
+                {
+                    s.Count += o.Count;
+                    ref Entry mine = ref _entries[s.Entry - 1];
+                    if (e.First < mine.First) mine.First = e.First;
+                    break;
+                }
+                i = (i + 1) & mask;
+            }
+        }
+        _dirty = true;
     }
 
     /// <summary>Forgets everything (after a spill).</summary>
