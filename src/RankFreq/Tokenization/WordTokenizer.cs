@@ -69,6 +69,31 @@ public sealed class WordTokenizer(bool keepCase) : ITokenizer
     internal static Kind Classify(Rune r)
     {
         int v = r.Value;
+        if (v < 0x10000) return (Kind)(Bmp.Table[v] & 3);
+        return ClassifySlow(r);
+    }
+
+    /// <summary>The rule's classes of every code point below U+10000, computed once: bits 0–1 <see cref="Kind"/>, bit 2 letter or digit.</summary>
+    private static class Bmp
+    {
+        public static readonly byte[] Table = Build();
+
+        private static byte[] Build()
+        {
+            var t = new byte[0x10000];
+            for (int v = 0; v < t.Length; v++)
+            {
+                if (v is >= 0xD800 and <= 0xDFFF) continue; // surrogates are never decoded runes
+                var r = new Rune(v);
+                t[v] = (byte)((int)ClassifySlow(r) | (IsLetterOrDigitSlow(r) ? 4 : 0));
+            }
+            return t;
+        }
+    }
+
+    private static Kind ClassifySlow(Rune r)
+    {
+        int v = r.Value;
         if (v < 0x80)
         {
             byte c = AsciiClass[v];
@@ -93,7 +118,9 @@ public sealed class WordTokenizer(bool keepCase) : ITokenizer
         }
     }
 
-    private static bool IsLetterOrDigit(Rune r)
+    private static bool IsLetterOrDigit(Rune r) => r.Value < 0x10000 ? (Bmp.Table[r.Value] & 4) != 0 : IsLetterOrDigitSlow(r);
+
+    private static bool IsLetterOrDigitSlow(Rune r)
     {
         if (r.Value < 0x80) return AsciiClass[r.Value] is 1 or 2;
         var c = Rune.GetUnicodeCategory(r);
@@ -450,7 +477,22 @@ public sealed class WordTokenizer(bool keepCase) : ITokenizer
             EmitSlow(tok);
         }
 
+        // raw token bytes → normalised, folded bytes: a token seen before skips decoding, NFC and case folding
+        private readonly ByteMap _folded = new(1 << 18);
+
         private void EmitSlow(ReadOnlySpan<byte> tok)
+        {
+            if (_folded.TryGet(tok, out var known))
+            {
+                sink.AddToken(known);
+                return;
+            }
+            var folded = Fold(tok);
+            _folded.Add(tok, folded);
+            sink.AddToken(folded);
+        }
+
+        private ReadOnlySpan<byte> Fold(ReadOnlySpan<byte> tok)
         {
             int maxChars = tok.Length + 1;
             if (_chars.Length < maxChars) _chars = new char[maxChars * 2];
@@ -473,7 +515,7 @@ public sealed class WordTokenizer(bool keepCase) : ITokenizer
             int maxBytes = Encoding.UTF8.GetMaxByteCount(text.Length);
             if (_bytes.Length < maxBytes) _bytes = new byte[maxBytes];
             int nb = Encoding.UTF8.GetBytes(text, _bytes);
-            sink.AddToken(_bytes.AsSpan(0, nb));
+            return _bytes.AsSpan(0, nb);
         }
     }
 }

@@ -27,6 +27,42 @@ public class WordTokenizerTests
         Assert.Equal(expected.Split('|').Select(s => s.Normalize()), ListSink.Words(text));
 
     [Fact]
+    public void RepeatedNonAsciiTokensFoldTheSameEveryTime()
+    {
+        // the second and later occurrences come from the session's fold cache, keyed on the raw bytes
+        var text = string.Join(' ', Enumerable.Repeat("ÉCOLE école e\u0301cole Straße STRASSE Ωμέγα ΩΜΈΓΑ", 3));
+        var t = ListSink.Words(text);
+        Assert.Equal(21, t.Count);
+        for (int i = 0; i < 21; i += 7)
+            Assert.Equal(["école", "école", "école", "straße", "strasse", "ωμέγα", "ωμέγα"], t.Skip(i).Take(7).Select(x => x.Normalize()));
+    }
+
+    [Fact]
+    public void ByteMapNeverReturnsAWrongValueAcrossClears()
+    {
+        var m = new ByteMap(100);
+        var rng = new Random(2);
+        var truth = new Dictionary<string, byte[]>();
+        var pool = Enumerable.Range(0, 300).Select(_ => { var b = new byte[rng.Next(1, 40)]; rng.NextBytes(b); return b; }).ToArray();
+        int hits = 0;
+        for (int i = 0; i < 5000; i++)
+        {
+            var k = pool[rng.Next(pool.Length)];
+            string hex = Convert.ToHexString(k);
+            if (m.TryGet(k, out var v)) { Assert.Equal(truth[hex], v.ToArray()); hits++; }
+            else
+            {
+                var val = truth.TryGetValue(hex, out var old) ? old : Encoding.UTF8.GetBytes("v" + i);
+                truth[hex] = val;
+                m.Add(k, val);
+                Assert.True(m.TryGet(k, out var back));
+                Assert.Equal(val, back.ToArray());
+            }
+        }
+        Assert.InRange(hits, 500, 4900); // both hits and misses after clears happened
+    }
+
+    [Fact]
     public void KeepCaseKeepsCase() => Assert.Equal(["Hello", "WORLD"], ListSink.Words("Hello WORLD", keepCase: true));
 
     [Fact]
