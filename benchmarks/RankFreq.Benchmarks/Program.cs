@@ -9,6 +9,12 @@ using RankFreq.Tokenization;
 //   dotnet run -c Release --project benchmarks/RankFreq.Benchmarks -- replicate   spectrum-level vs per-type replicate, one run
 //   dotnet run -c Release --project benchmarks/RankFreq.Benchmarks -- make-spectrum FILE   10^6 types, α = 2, xmin = 1
 //   dotnet run -c Release --project benchmarks/RankFreq.Benchmarks -- bdn [filters]  BenchmarkDotNet kernels
+//   ... -- words-kernel FILE       words tokenizer alone and with the table, one thread, best of seven
+//   ... -- count-phases FILE       whole counting run in process, then the Parquet write, twice
+//   ... -- stages FILE / subword-stages FILE   where counting time goes, by stage
+//   ... -- encode-whole FILE       the o200k_base baseline: the library's EncodeToIds over the whole text
+//   ... -- load-vocab              stages of loading o200k_base
+//   ... -- write-cold N flat|zstd|snappy|none [x]   one count-table-shaped file written in a fresh process
 if (args.Length > 0 && args[0] == "replicate") { ReplicateComparison.Run(); return; }
 if (args.Length > 1 && args[0] == "words-kernel")
 {
