@@ -21,12 +21,13 @@ internal static class O200kSplitter
 
     // class bits
     private const byte Upperish = 1, Lowerish = 2, Letter = 4, Number = 8, Space = 16, Newline = 32;
-    private static readonly byte[] Ascii = BuildAscii();
+    // every UTF-16 code unit's class bits, computed once (64 KiB): the splitter asks for one per character
+    private static readonly byte[] Table = BuildTable();
 
-    private static byte[] BuildAscii()
+    private static byte[] BuildTable()
     {
-        var t = new byte[128];
-        for (int c = 0; c < 128; c++) t[c] = Slow((char)c);
+        var t = new byte[0x10000];
+        for (int c = 0; c < t.Length; c++) t[c] = Slow((char)c);
         return t;
     }
 
@@ -46,7 +47,8 @@ internal static class O200kSplitter
         return b;
     }
 
-    private static byte Class(char c) => c < 128 ? Ascii[c] : Slow(c);
+    [System.Runtime.CompilerServices.MethodImpl(System.Runtime.CompilerServices.MethodImplOptions.AggressiveInlining)]
+    private static byte Class(char c) => Table[c];
 
     /// <summary>Calls <paramref name="chunk"/> with (offset, length) of every chunk of <paramref name="t"/>, in order.</summary>
     public static void Split(ReadOnlySpan<char> t, Action<int, int> chunk)
