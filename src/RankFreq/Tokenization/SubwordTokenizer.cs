@@ -24,19 +24,22 @@ public sealed class SubwordTokenizer : ITokenizer
     private readonly Tokenizer _tokenizer;
     private readonly PreTokenizer? _pre;
     private readonly string[] _display;
-    private readonly bool _fastO200k;
+    private readonly ChunkMatcher? _splitter; // the hand-written equivalent of a tiktoken encoding's regex
 
-    private SubwordTokenizer(string spec, Tokenizer tokenizer, PreTokenizer? pre, string[] display, bool fastO200k = false, string[]? base64 = null)
+    /// <summary>End of the chunk of <paramref name="t"/> that starts at <paramref name="p"/> (<paramref name="p"/> when none).</summary>
+    internal delegate int ChunkMatcher(ReadOnlySpan<char> t, int p);
+
+    private SubwordTokenizer(string spec, Tokenizer tokenizer, PreTokenizer? pre, string[] display, ChunkMatcher? splitter = null, string[]? base64 = null)
     {
         _base64 = base64;
         Spec = spec;
         _tokenizer = tokenizer;
         _pre = pre;
         _display = display;
-        _fastO200k = fastO200k;
+        _splitter = splitter;
     }
 
-    /// <summary>The regex pre-tokenizer in use (the reference the hand-written o200k splitter is tested against).</summary>
+    /// <summary>The regex pre-tokenizer in use (the reference the hand-written splitters are tested against).</summary>
     public PreTokenizer? PreTokenizer => _pre;
 
     /// <inheritdoc/>
@@ -93,13 +96,20 @@ public sealed class SubwordTokenizer : ITokenizer
         var parse = Task.Run(() => ParseTiktokenBase64(file));
         // The pre-tokenizer regex without special-token splitting. Building the library's own tokenizer just to read
         // its regex would load the vocabulary a second time, so the patterns are kept here; a test checks them
-        // against the library's. o200k_base counting uses the hand-written splitter instead of the regex.
+        // against the library's. Counting uses the hand-written splitters instead of the regex.
         string pattern = TiktokenPatterns[encoding];
-        var pre = new RegexPreTokenizer(new Regex(pattern, encoding == "o200k_base" ? RegexOptions.None : RegexOptions.Compiled), null);
+        // counting splits with hand-written equivalents; the regex stays for whole-text encoding and as the tests' reference
+        var pre = new RegexPreTokenizer(new Regex(pattern, RegexOptions.None), null);
         raw.Position = 0;
         var tok = TiktokenTokenizer.Create(raw, pre, normalizer: null, specialTokens: null);
         var base64 = parse.GetAwaiter().GetResult();
-        return new SubwordTokenizer(encoding, tok, pre, new string[base64.Length], encoding == "o200k_base", base64);
+        ChunkMatcher splitter = encoding switch
+        {
+            "o200k_base" => O200kSplitter.Match,
+            "cl100k_base" => TiktokenSplitters.MatchCl100k,
+            _ => TiktokenSplitters.MatchR50k,
+        };
+        return new SubwordTokenizer(encoding, tok, pre, new string[base64.Length], splitter, base64);
     }
 
     /// <summary>The pre-tokenizer patterns of Microsoft.ML.Tokenizers 2.0.1 for the embedded encodings.</summary>
@@ -263,12 +273,12 @@ public sealed class SubwordTokenizer : ITokenizer
         private void Encode(ReadOnlySpan<char> text)
         {
             if (text.IsEmpty) return;
-            if (owner._fastO200k)
+            if (owner._splitter is { } match)
             {
                 int p = 0;
                 while (p < text.Length)
                 {
-                    int e = O200kSplitter.Match(text, p);
+                    int e = match(text, p);
                     if (e <= p) { p++; continue; }
                     EncodeChunk(text[p..e]);
                     p = e;

@@ -119,42 +119,93 @@ public class SubwordTokenizerTests
     }
 }
 
-public class O200kSplitterTests
+public class TiktokenSplitterTests
 {
-    // the library's own pre-tokenizer for o200k_base (special-token text does not occur in these texts)
-    private static readonly Microsoft.ML.Tokenizers.PreTokenizer Regex = Microsoft.ML.Tokenizers.TiktokenTokenizer.CreateForEncoding("o200k_base").PreTokenizer!;
+    // The library's own pre-tokenizers are the reference (special-token text does not occur in these texts).
+    private static readonly Dictionary<string, Microsoft.ML.Tokenizers.PreTokenizer> Regexes = new[] { "o200k_base", "cl100k_base", "r50k_base" }
+        .ToDictionary(e => e, e => Microsoft.ML.Tokenizers.TiktokenTokenizer.CreateForEncoding(e).PreTokenizer!);
 
-    private static void Same(string text, string what)
+    private static List<(int, int)> Hand(string encoding, string text)
     {
-        var expected = Regex.PreTokenize(text).ToList();
-        var got = O200kSplitter.Chunks(text);
+        SubwordTokenizer.ChunkMatcher match = encoding switch
+        {
+            "o200k_base" => O200kSplitter.Match,
+            "cl100k_base" => TiktokenSplitters.MatchCl100k,
+            _ => TiktokenSplitters.MatchR50k,
+        };
+        var list = new List<(int, int)>();
+        int p = 0;
+        while (p < text.Length)
+        {
+            int e = match(text, p);
+            if (e <= p) { p++; continue; }
+            list.Add((p, e - p));
+            p = e;
+        }
+        return list;
+    }
+
+    private static void Same(string encoding, string text, string what)
+    {
+        var expected = Regexes[encoding].PreTokenize(text).ToList();
+        var got = Hand(encoding, text);
         if (expected.SequenceEqual(got)) return;
         int i = 0;
         while (i < Math.Min(expected.Count, got.Count) && expected[i] == got[i]) i++;
         string Show((int o, int l)? c) => c is { } x ? $"'{text.Substring(x.o, x.l)}' at {x.o}" : "none";
-        Assert.Fail($"{what}: chunk {i} differs: regex {Show(i < expected.Count ? expected[i] : null)}, splitter {Show(i < got.Count ? got[i] : null)}");
+        Assert.Fail($"{encoding}, {what}: chunk {i} differs: regex {Show(i < expected.Count ? expected[i] : null)}, splitter {Show(i < got.Count ? got[i] : null)}");
+    }
+
+    public static readonly TheoryData<string> Encodings = new() { "o200k_base", "cl100k_base", "r50k_base" };
+
+    private static readonly string[] EdgeCases =
+    [
+        "Hello world, it's HTML5 they're ÉCOLE d'été",
+        "a  b\n\n  c \r\n\td   ",
+        "12345 1,000,000 ١٢٣٤ ½ 1234567",
+        "x/y//\n--> ... !!\n\n/ /",
+        "camelCaseWord HTTPServer ǅungla ʰello",
+        "emoji 👋🏽 and 𝔘𝔫𝔦𝔠𝔬𝔡𝔢 tokens",
+        "e\u0301cole \u0301mark  \u0301 'S 'LL 'Re I'M 'ſ 've'll'd",
+        "中文字テキスト한국어 สวัสดี",
+        "  leading\tand trailing \n",
+        "a\r\n\r\nb \u00A0\u2003c\u0085d",
+        "$100 #tag @user ' '' ''s",
+        " ",
+        "\n",
+        "end  ",
+    ];
+
+    [Theory]
+    [MemberData(nameof(Encodings))]
+    public void MatchesTheRegexOnEdgeCases(string encoding)
+    {
+        foreach (var t in EdgeCases) Same(encoding, t, t);
     }
 
     [Theory]
-    [InlineData("Hello world, it's HTML5 they're ÉCOLE d'été")]
-    [InlineData("a  b\n\n  c \r\n\td   ")]
-    [InlineData("12345 1,000,000 ١٢٣٤ ½")]
-    [InlineData("x/y//\n--> ... !!\n\n/ /")]
-    [InlineData("camelCaseWord HTTPServer ǅungla ʰello")]
-    [InlineData("emoji 👋🏽 and 𝔘𝔫𝔦𝔠𝔬𝔡𝔢 tokens")]
-    [InlineData("e\u0301cole \u0301mark  \u0301 'S 'LL 'Re I'M")]
-    [InlineData("中文字テキスト한국어 สวัสดี")]
-    public void MatchesTheRegexOnEdgeCases(string text) => Same(text, text);
-
-    [CorpusFact]
-    public void MatchesTheRegexOnEveryUdhrTranslationAndTheLargeTexts()
+    [MemberData(nameof(Encodings))]
+    public void MatchesTheRegexOnRandomText(string encoding)
     {
-        // every translation in $RANKFREQ_CORPORA/udhr plus the Bibles and the addresses: the regex
-        // pre-tokenizer of Microsoft.ML.Tokenizers is the reference, chunk for chunk
+        // random strings over pieces that sit on the rules' boundaries
+        string[] pieces = ["a", "Z", "é", "\u0301", "1", "٣", "½", " ", "  ", "\t", "\n", "\r", "'", "s", "LL", "ve", "-", "/", "!", "中", "👋", "\u00A0", "x"];
+        var rng = new Random(17);
+        for (int k = 0; k < 400; k++)
+        {
+            var text = string.Concat(Enumerable.Range(0, rng.Next(1, 40)).Select(_ => pieces[rng.Next(pieces.Length)]));
+            Same(encoding, text, $"random #{k}");
+        }
+    }
+
+    [CorpusTheory]
+    [MemberData(nameof(Encodings))]
+    public void MatchesTheRegexOnEveryUdhrTranslationAndTheLargeTexts(string encoding)
+    {
+        // every translation in $RANKFREQ_CORPORA/udhr plus the Bibles and the addresses, chunk for chunk
         foreach (var f in Directory.GetFiles(Corpora.File("udhr/INDEX.tsv")[..^"INDEX.tsv".Length], "*.txt"))
-            Same(File.ReadAllText(f), Path.GetFileName(f));
-        Same(File.ReadAllText(Corpora.File("kjv-bible.txt")), "kjv");
-        Same(File.ReadAllText(Corpora.File("reina-valera-1909.txt")), "reina-valera");
-        Same(File.ReadAllText(Corpora.File("sotu.jsonl"))[..3_000_000], "sotu");
+            Same(encoding, File.ReadAllText(f), Path.GetFileName(f));
+        Same(encoding, File.ReadAllText(Corpora.File("kjv-bible.txt")), "kjv");
+        Same(encoding, File.ReadAllText(Corpora.File("reina-valera-1909.txt")), "reina-valera");
+        Same(encoding, File.ReadAllText(Corpora.File("sotu.jsonl"))[..3_000_000], "sotu");
     }
 }
