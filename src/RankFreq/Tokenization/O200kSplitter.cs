@@ -141,16 +141,6 @@ internal static class O200kSplitter
     }
 
     /// <summary>(?i:'s|'t|'re|'ve|'m|'ll|'d)? after a letter run ending at <paramref name="e"/>.</summary>
-    private static int Contraction(ReadOnlySpan<char> t, int e)
-    {
-        if (e + 1 >= t.Length || t[e] != '\'') return e;
-        char a = char.ToLowerInvariant(t[e + 1]);
-        if (a is 's' or 't' or 'm' or 'd' || t[e + 1] == '\u017F') return e + 2; // ſ is a case variant of s for .NET's regex
-        if (e + 2 < t.Length)
-        {
-            char b = char.ToLowerInvariant(t[e + 2]);
-            if ((a == 'r' && b == 'e') || (a == 'v' && b == 'e') || (a == 'l' && b == 'l')) return e + 3;
-        }
-        return e;
-    }
+    private static int Contraction(ReadOnlySpan<char> t, int e) =>
+        e < t.Length && t[e] == '\'' ? TiktokenSplitters.ContractionIgnoreCase(t, e) : e;
 }

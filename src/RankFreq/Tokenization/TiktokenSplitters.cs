@@ -134,7 +134,7 @@ internal static class TiktokenSplitters
     }
 
     /// <summary>(?i:[sdmt]|ll|ve|re) after an apostrophe at <paramref name="p"/>; <paramref name="p"/> when none matches.</summary>
-    private static int ContractionIgnoreCase(ReadOnlySpan<char> t, int p)
+    internal static int ContractionIgnoreCase(ReadOnlySpan<char> t, int p)
     {
         if (p + 1 >= t.Length) return p;
         char a = char.ToLowerInvariant(t[p + 1]);
