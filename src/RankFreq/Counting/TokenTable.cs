@@ -143,35 +143,39 @@ internal sealed class TokenTable
     public void AddShort(ulong a, ulong b, int len, long first) => AddShortHashed(a, b, len, Mix(a, b, len), first);
 
     /// <summary>
-    /// One occurrence of each packed token, in order; token i is new at position <paramref name="first"/> + i. Hashes
-    /// the whole batch and prefetches each home slot first, so the cache misses of rarer types overlap instead of
-    /// stalling one after another.
+    /// One occurrence of each packed token, in order; token i is new at position <paramref name="first"/> + i. Each
+    /// token's home slot is prefetched <see cref="PrefetchDistance"/> tokens ahead of its probe, so the cache misses of
+    /// rarer types overlap instead of stalling one after another (a whole batch prefetched at once overruns the
+    /// memory system's queue of outstanding misses and stalls instead).
     /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public void AddPacked(ReadOnlySpan<PackedToken> tokens, long first)
     {
-        Span<ulong> hashes = stackalloc ulong[Math.Min(tokens.Length, 1024)];
-        int done = 0;
-        while (done < tokens.Length)
+        const int Ring = 32; // power of two above the distance
+        Span<ulong> ring = stackalloc ulong[Ring];
+        int n = tokens.Length;
+        for (int i = 0; i < Math.Min(PrefetchDistance, n); i++) ring[i] = HashAndPrefetch(tokens[i]);
+        for (int i = 0; i < n; i++)
         {
-            var part = tokens.Slice(done, Math.Min(hashes.Length, tokens.Length - done));
-            int mask = _slots.Length - 1;
-            ref Slot p0 = ref MemoryMarshal.GetArrayDataReference(_slots);
-            for (int i = 0; i < part.Length; i++)
-            {
-                ref readonly var t = ref part[i];
-                ulong h = Mix(t.Lo, t.Hi, t.Length);
-                hashes[i] = h;
-                if (Sse.IsSupported)
-                    unsafe { Sse.Prefetch0(Unsafe.AsPointer(ref Unsafe.Add(ref p0, (int)h & mask))); }
-            }
-            for (int i = 0; i < part.Length; i++)
-            {
-                ref readonly var t = ref part[i];
-                AddShortHashed(t.Lo, t.Hi, t.Length, hashes[i], first + done + i);
-            }
-            done += part.Length;
+            if (i + PrefetchDistance < n) ring[(i + PrefetchDistance) & (Ring - 1)] = HashAndPrefetch(tokens[i + PrefetchDistance]);
+            ref readonly var t = ref tokens[i];
+            AddShortHashed(t.Lo, t.Hi, t.Length, ring[i & (Ring - 1)], first + i);
         }
+    }
+
+    /// <summary>How many tokens ahead of its probe a token's home slot is prefetched.</summary>
+    private const int PrefetchDistance = 12;
+
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private ulong HashAndPrefetch(in PackedToken t)
+    {
+        ulong h = Mix(t.Lo, t.Hi, t.Length);
+        if (Sse.IsSupported)
+        {
+            Slot[] slots = _slots;
+            unsafe { Sse.Prefetch0(Unsafe.AsPointer(ref Unsafe.Add(ref MemoryMarshal.GetArrayDataReference(slots), (int)h & (slots.Length - 1)))); }
+        }
+        return h;
     }
 
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
