@@ -112,6 +112,22 @@ public class SourceTests
         File.WriteAllBytes(d["two.gz"], m1.Concat(m2).ToArray());
         using (var two = CountEngine.Count([d["two.gz"]], new CountSettings())) Assert.True(two.Summary.Tokens > 5000);
 
+        // members written by GNU gzip, which records the file name in each header (FNAME), where the tool is present
+        File.WriteAllText(d["a.txt"], a);
+        File.WriteAllText(d["b.txt"], b);
+        if (RunTool("gzip", d["a.txt"], d["a.gz"]) && RunTool("gzip", d["b.txt"], d["b.gz"]))
+        {
+            var g1 = File.ReadAllBytes(d["a.gz"]);
+            var g2 = File.ReadAllBytes(d["b.gz"]);
+            Assert.True((g2[3] & 8) != 0, "gzip wrote no file name; the header path is not exercised");
+            File.WriteAllBytes(d["gnu.gz"], g1.Concat(g2).ToArray());
+            using (var plain = CountEngine.Count([d["plain.txt"]], new CountSettings()))
+            using (var gnu = CountEngine.Count([d["gnu.gz"]], new CountSettings()))
+                Assert.Equal(plain.Spectrum, gnu.Spectrum);
+            File.WriteAllBytes(d["gnu-cut.gz"], g1.Concat(g2).Take(g1.Length + g2.Length / 2).ToArray());
+            Assert.Throws<SourceException>(() => CountEngine.Count([d["gnu-cut.gz"]], new CountSettings()));
+        }
+
         // cut inside the second member, inside the first, and inside the last trailer
         foreach (int cut in new[] { m1.Length + m2.Length / 2, m1.Length / 2, m1.Length + m2.Length - 3 })
         {
