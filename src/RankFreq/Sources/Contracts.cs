@@ -46,7 +46,11 @@ public sealed record SourceOptions(
     long MaxRecordBytes = 64L << 20,
     bool Strict = false,
     IReadOnlyList<string>? Include = null,
-    IReadOnlyList<string>? Exclude = null);
+    IReadOnlyList<string>? Exclude = null)
+{
+    /// <summary>Compressed files at least this large (stored size) are decompressed on a second thread while counting.</summary>
+    public long ReadAheadAboveBytes { get; init; } = 4L << 20;
+}
 
 /// <summary>Bad or unreadable input: the message names the file and, where known, the line or byte offset.</summary>
 public sealed class SourceException(string message, Exception? inner = null) : Exception(message, inner);

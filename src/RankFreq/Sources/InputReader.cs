@@ -41,7 +41,12 @@ public static class InputReader
         long start = unit.Start, end = unit.End;
         if (start > 0) raw.Seek(start, SeekOrigin.Begin);
         using var counted = new CountingStream(raw);
-        using var text = Decompression.Open(counted, f.Compression);
+        using var decoded = Decompression.Open(counted, f.Compression);
+        // a large compressed file is decompressed on a second thread while this one counts
+        using var ahead = f.Compression != CompressionKind.None && f.Length >= options.ReadAheadAboveBytes
+            ? new ReadAheadStream(decoded, BlockBytes, 4)
+            : null;
+        Stream text = (Stream?)ahead ?? decoded;
         var sanitizer = new Utf8Sanitizer(f.Format == InputFormat.JsonLines
             ? new JsonLinesExtractor(f.Path, options, sink, stats)
             : sink);

@@ -12,6 +12,16 @@ public class SourceTests
 
     private static CountResult Count(params string[] inputs) => CountEngine.Count(inputs, new CountSettings(Threads: 2));
 
+    // read-ahead (decompressing on a second thread) is normally only for compressed files of 4 MiB and more
+    private static CountResult Count(bool readAhead, params string[] inputs) =>
+        CountEngine.Count(inputs, new CountSettings(Threads: 2, Source: new SourceOptions { ReadAheadAboveBytes = readAhead ? 0 : long.MaxValue }));
+
+    public static readonly TheoryData<string, bool> Compressions = new()
+    {
+        { "gzip", false }, { "zstd", false }, { "bzip2", false }, { "xz", false },
+        { "gzip", true }, { "zstd", true }, { "bzip2", true }, { "xz", true },
+    };
+
     private static Dictionary<string, long> Table(CountResult r)
     {
         var rows = (InMemoryRows)r.Rows;
@@ -21,11 +31,8 @@ public class SourceTests
     private static string Repeat(int n) => string.Concat(Enumerable.Repeat(Sample, n));
 
     [Theory]
-    [InlineData("gzip")]
-    [InlineData("zstd")]
-    [InlineData("bzip2")]
-    [InlineData("xz")]
-    public void EveryCompressionGivesThePlainCounts(string kind)
+    [MemberData(nameof(Compressions))]
+    public void EveryCompressionGivesThePlainCounts(string kind, bool readAhead)
     {
         using var d = new TempDir();
         var text = Repeat(3000);
@@ -46,7 +53,7 @@ public class SourceTests
             c.Write(Encoding.UTF8.GetBytes(text));
         }
         using var a = Count(d["plain.txt"]);
-        using var b = Count(packed);
+        using var b = Count(readAhead, packed);
         Assert.Equal(Table(a), Table(b));
         Assert.Equal(6000, Table(b)["harbour"]);
     }
@@ -65,10 +72,13 @@ public class SourceTests
     }
 
     [Theory]
-    [InlineData("gzip")]
-    [InlineData("zstd")]
-    [InlineData("bzip2")]
-    public void TruncatedOrCorruptArchiveIsAnErrorNamingTheFile(string kind)
+    [InlineData("gzip", false)]
+    [InlineData("zstd", false)]
+    [InlineData("bzip2", false)]
+    [InlineData("gzip", true)]
+    [InlineData("zstd", true)]
+    [InlineData("bzip2", true)]
+    public void TruncatedOrCorruptArchiveIsAnErrorNamingTheFile(string kind, bool readAhead)
     {
         using var d = new TempDir();
         var raw = Encoding.UTF8.GetBytes(Repeat(20000));
@@ -82,7 +92,7 @@ public class SourceTests
         var packed = ms.ToArray();
         string path = d["broken.txt." + kind];
         File.WriteAllBytes(path, packed[..(packed.Length / 2)]);
-        var e = Assert.ThrowsAny<Exception>(() => Count(path));
+        var e = Assert.ThrowsAny<Exception>(() => Count(readAhead, path));
         Assert.True(e is SourceException, $"{e.GetType().Name}: {e.Message}");
         Assert.Contains(path, e.Message);
     }
@@ -105,9 +115,11 @@ public class SourceTests
         File.WriteAllBytes(d["multi.gz"], whole);
         using (var plain = CountEngine.Count([d["plain.txt"]], new CountSettings()))
         using (var multi = CountEngine.Count([d["multi.gz"]], new CountSettings()))
+        using (var ahead = Count(true, d["multi.gz"]))
         {
             Assert.Equal(plain.Summary.Tokens, multi.Summary.Tokens);
             Assert.Equal(plain.Spectrum, multi.Spectrum);
+            Assert.Equal(plain.Spectrum, ahead.Spectrum);
         }
         File.WriteAllBytes(d["two.gz"], m1.Concat(m2).ToArray());
         using (var two = CountEngine.Count([d["two.gz"]], new CountSettings())) Assert.True(two.Summary.Tokens > 5000);
@@ -135,7 +147,27 @@ public class SourceTests
             File.WriteAllBytes(p, m1.Concat(m2).Take(cut).ToArray());
             var e = Assert.Throws<SourceException>(() => CountEngine.Count([p], new CountSettings()));
             Assert.Contains(p, e.Message);
+            Assert.Contains(p, Assert.Throws<SourceException>(() => Count(true, p)).Message);
         }
+    }
+
+    [Fact]
+    public async Task AnErrorWhileReadingAheadStopsTheReaderThread()
+    {
+        // a record over --max-record in a gzip JSON Lines file read ahead on a second thread: the error must reach
+        // the caller, name file and line, and leave no thread blocked on a full queue
+        using var d = new TempDir();
+        string path = d["big.jsonl.gz"];
+        using (var o = File.Create(path))
+        using (var g = new GZipStream(o, CompressionLevel.Fastest))
+        using (var w = new StreamWriter(g))
+            for (int i = 0; i < 2500; i++) w.WriteLine("{\"text\":\"" + string.Concat(Enumerable.Repeat("word ", i == 3 ? 40_000 : 1000)) + "\"}"); // ~12 MB: the queue fills
+        var run = Task.Run(() => CountEngine.Count([path], new CountSettings(Threads: 2,
+            Source: new SourceOptions(MaxRecordBytes: 100_000) { ReadAheadAboveBytes = 0 })));
+        var finished = await Task.WhenAny(run, Task.Delay(TimeSpan.FromSeconds(60)));
+        Assert.True(finished == run, "the count did not finish");
+        var e = await Assert.ThrowsAsync<SourceException>(() => run);
+        Assert.Contains(path + ":4:", e.Message);
     }
 
     [Fact]
