@@ -159,16 +159,18 @@ public static class InputPlanner
     }
 
     /// <summary>
-    /// Work units in corpus order; a plain uncompressed text file over <paramref name="splitAbove"/> bytes is cut
-    /// into up to <paramref name="parts"/> ranges at positions the tokenizer's <paramref name="cut"/> rule allows,
-    /// found here once so that neighbouring ranges agree exactly.
+    /// Work units in corpus order; an uncompressed plain text file over <paramref name="splitAbove"/> bytes is cut
+    /// into up to <paramref name="parts"/> ranges at positions the tokenizer's <paramref name="cut"/> rule allows, and
+    /// an uncompressed JSON Lines file at record boundaries; the cuts are found here once, so neighbouring ranges agree.
     /// </summary>
     public static IReadOnlyList<WorkUnit> Plan(IReadOnlyList<InputFile> files, RangeCut cut, int parts, long splitAbove = 16L << 20)
     {
         var units = new List<WorkUnit>();
         foreach (var f in files)
         {
-            if (cut != RangeCut.None && !f.IsStdin && f.Compression == CompressionKind.None && f.Format == InputFormat.Text && f.Length > splitAbove && parts > 1)
+            // JSON Lines records are documents of their own and never hold a raw newline: any newline is a cut
+            var fileCut = f.Format == InputFormat.JsonLines ? RangeCut.AnyNewline : f.Format == InputFormat.Text ? cut : RangeCut.None;
+            if (fileCut != RangeCut.None && !f.IsStdin && f.Compression == CompressionKind.None && f.Length > splitAbove && parts > 1)
             {
                 int k = (int)Math.Min(parts, Math.Max(1, f.Length / Math.Max(1, splitAbove / 4)));
                 long step = f.Length / k;
@@ -176,7 +178,7 @@ public static class InputPlanner
                 using (var fs = new FileStream(f.Path, FileMode.Open, FileAccess.Read, FileShare.Read, 1 << 16))
                     for (int i = 1; i < k; i++)
                     {
-                        long c = FindCut(fs, Math.Max(i * step, cuts[^1]), cut);
+                        long c = FindCut(fs, Math.Max(i * step, cuts[^1]), fileCut);
                         if (c > cuts[^1] && c < f.Length) cuts.Add(c);
                     }
                 cuts.Add(f.Length);

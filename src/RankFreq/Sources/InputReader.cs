@@ -48,7 +48,7 @@ public static class InputReader
             : null;
         Stream text = (Stream?)ahead ?? decoded;
         var sanitizer = new Utf8Sanitizer(f.Format == InputFormat.JsonLines
-            ? new JsonLinesExtractor(f.Path, options, sink, stats)
+            ? new JsonLinesExtractor(f.Path, options, sink, stats, unit.Start)
             : sink);
         if (unit.Start > 0) sanitizer.Write([], false); // not at file start: no BOM to skip
 
@@ -155,9 +155,29 @@ public static class InputReader
         finally { reader.DisposeAsync().AsTask().GetAwaiter().GetResult(); }
     }
 
-    /// <summary>Splits sanitized text into JSON Lines records and writes each record's text field as one document.</summary>
-    private sealed class JsonLinesExtractor(string path, SourceOptions options, ITextSink sink, SourceStats stats) : ITextSink
+    /// <summary>Newlines in the first <paramref name="offset"/> bytes of a file.</summary>
+    internal static long LinesBefore(string path, long offset)
     {
+        using var fs = new FileStream(path, FileMode.Open, FileAccess.Read, FileShare.Read, 1 << 16, FileOptions.SequentialScan);
+        var buf = new byte[1 << 20];
+        long lines = 0, left = offset;
+        while (left > 0)
+        {
+            int n = fs.Read(buf, 0, (int)Math.Min(buf.Length, left));
+            if (n <= 0) break;
+            lines += buf.AsSpan(0, n).Count((byte)'\n');
+            left -= n;
+        }
+        return lines;
+    }
+
+    /// <summary>Splits sanitized text into JSON Lines records and writes each record's text field as one document.</summary>
+    private sealed class JsonLinesExtractor(string path, SourceOptions options, ITextSink sink, SourceStats stats, long rangeStart) : ITextSink
+    {
+        /// <summary>The file's line number of this range's line <paramref name="local"/>: the lines before a range that
+        /// starts inside the file are counted only when an error needs them.</summary>
+        private long FileLine(long local) => rangeStart > 0 ? LinesBefore(path, rangeStart) + local : local;
+
         private readonly string[] _fieldPath = options.TextField.Split('.');
         private byte[] _line = new byte[1 << 16];
         private int _lineLen;
@@ -182,7 +202,7 @@ public static class InputReader
         {
             long need = (long)_lineLen + part.Length;
             if (need > options.MaxRecordBytes)
-                throw new SourceException($"{path}:{_lineNo + 1}: record longer than --max-record ({options.MaxRecordBytes} bytes)");
+                throw new SourceException($"{path}:{FileLine(_lineNo + 1)}: record longer than --max-record ({options.MaxRecordBytes} bytes)");
             if (_line.Length < need) Array.Resize(ref _line, (int)Math.Min(Math.Max(need, _line.Length * 2L), Array.MaxLength));
             part.CopyTo(_line.AsSpan(_lineLen));
             _lineLen += part.Length;
@@ -201,7 +221,7 @@ public static class InputReader
             try { found = Extract(line, out len); }
             catch (Exception e) when (e is JsonException or InvalidOperationException)
             {
-                if (options.Strict) throw new SourceException($"{path}:{_lineNo}: malformed JSON record ({e.Message.Split('\n')[0]})");
+                if (options.Strict) throw new SourceException($"{path}:{FileLine(_lineNo)}: malformed JSON record ({e.Message.Split('\n')[0]})");
                 stats.MalformedRecords++;
                 return;
             }

@@ -171,6 +171,28 @@ public class SourceTests
     }
 
     [Fact]
+    public void JsonLinesFilesAreCutAtRecordsWithFileLineNumbersInErrors()
+    {
+        using var d = new TempDir();
+        string path = d["recs.jsonl"];
+        var lines = Enumerable.Range(0, 3000).Select(i => $"{{\"id\":{i},\"text\":\"{Sample.Replace("\n", "\\n")} rec{i % 97}\"}}").ToList();
+        File.WriteAllLines(path, lines);
+        // one reader, and ranges of about 32 KiB handed to two threads: the same counts, records and growth
+        using var whole = CountEngine.Count([path], new CountSettings(Threads: 1));
+        using var split = CountEngine.Count([path], new CountSettings(Threads: 2, SplitAboveBytes: 1 << 17));
+        Assert.Equal(3000, split.Summary.Records);
+        Assert.Equal(Table(whole), Table(split));
+        Assert.Equal(whole.Growth.Types, split.Growth.Types);
+
+        // a malformed record deep in the file: under --strict the error names its line in the file, not in its range
+        lines[2500] = "{\"text\": broken";
+        File.WriteAllLines(path, lines);
+        var strict = new SourceOptions(Strict: true);
+        var e = Assert.Throws<SourceException>(() => CountEngine.Count([path], new CountSettings(Source: strict, Threads: 2, SplitAboveBytes: 1 << 17)));
+        Assert.Contains(path + ":2501:", e.Message);
+    }
+
+    [Fact]
     public void JsonLinesNestedFieldMalformedAndStrict()
     {
         using var d = new TempDir();
