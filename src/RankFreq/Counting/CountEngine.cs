@@ -186,11 +186,7 @@ public static class CountEngine
             if (Table.MemoryBytes > _budget) _spill.Spill(Table);
         }
 
-        public void AddId(int id)
-        {
-            if (IdCounts![id]++ == 0) IdFirst![id] = TokenTable.PackPosition(_unit, _pos);
-            _pos++;
-        }
+        public void AddId(int id) => AddIds(new ReadOnlySpan<int>(in id));
 
         public void AddIds(ReadOnlySpan<int> ids)
         {

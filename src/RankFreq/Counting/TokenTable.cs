@@ -213,19 +213,27 @@ internal sealed class TokenTable
     public void Add(ReadOnlySpan<byte> key, long count, long first, int id = -1)
     {
         bool isShort = ShortWords(key, out ulong a, out ulong w);
-        ulong h64 = isShort ? Mix(a, w, key.Length) : XxHash3.HashToUInt64(key);
-        if (!isShort) a = h64;
+        ulong h = isShort ? Mix(a, w, key.Length) : XxHash3.HashToUInt64(key);
+        Upsert(isShort ? a : h, w, h, key, count, first, id);
+    }
+
+    /// <summary>
+    /// Adds to the key whose slot words are <paramref name="k0"/>, <paramref name="k1"/> (packed bytes, or the hash and 0
+    /// beyond 16 bytes) and whose bytes are <paramref name="key"/>, read only to insert or to compare a long key.
+    /// </summary>
+    private void Upsert(ulong k0, ulong k1, ulong h, ReadOnlySpan<byte> key, long count, long first, int id)
+    {
         int mask = _slots.Length - 1;
-        int i = (int)h64 & mask;
+        int i = (int)h & mask;
         while (true)
         {
             ref Slot s = ref _slots[i];
             if (s.Entry == 0)
             {
-                Insert(ref s, a, w, key, count, first, id);
+                Insert(ref s, k0, k1, key, count, first, id);
                 return;
             }
-            if (s.Len == key.Length && s.K0 == a && s.K1 == w && (isShort || Key(_entries[s.Entry - 1]).SequenceEqual(key)))
+            if (s.Len == key.Length && s.K0 == k0 && s.K1 == k1 && (key.Length <= 16 || Key(_entries[s.Entry - 1]).SequenceEqual(key)))
             {
                 s.Count += count;
                 ref Entry e = ref _entries[s.Entry - 1];
@@ -295,14 +303,13 @@ internal sealed class TokenTable
     {
         var entries = Entries;
         var keys = new SortKey[entries.Length];
-        Span<byte> pad = stackalloc byte[16];
         for (int i = 0; i < keys.Length; i++)
         {
             var k = Key(entries[i]);
-            pad.Clear();
-            k[..Math.Min(16, k.Length)].CopyTo(pad);
-            keys[i] = new SortKey(byCount ? entries[i].Count : 0, BinaryPrimitives.ReadUInt64BigEndian(pad),
-                BinaryPrimitives.ReadUInt64BigEndian(pad[8..]), k.Length, i);
+            Pack16(k[..Math.Min(16, k.Length)], out ulong a, out ulong b);
+            // little-endian packed words byte-reversed: the first byte becomes the most significant
+            keys[i] = new SortKey(byCount ? entries[i].Count : 0, BinaryPrimitives.ReverseEndianness(a),
+                BinaryPrimitives.ReverseEndianness(b), k.Length, i);
         }
         new SortKeyComparer(this).SortParallel(keys);
         var idx = new int[keys.Length];
@@ -402,38 +409,15 @@ internal sealed class TokenTable
     /// <summary>Adds every entry of another table.</summary>
     public void MergeFrom(TokenTable other)
     {
-        // straight from the other table's slots: short keys are already packed, so no key is read from its arena
+        // straight from the other table's slots: keys come packed (or hashed) with their counts, and the other arena is
+        // read only to insert a key or to compare a long one
         foreach (ref readonly var o in other._slots.AsSpan())
         {
             if (o.Entry == 0) continue;
             ref readonly var e = ref other._entries[o.Entry - 1];
-            if (o.Len > 16)
-            {
-                Add(other.Key(e), o.Count, e.First, e.Id);
-                continue;
-            }
-            ulong h = Mix(o.K0, o.K1, o.Len);
-            int mask = _slots.Length - 1;
-            int i = (int)h & mask;
-            while (true)
-            {
-                ref Slot s = ref _slots[i];
-                if (s.Entry == 0)
-                {
-                    Insert(ref s, o.K0, o.K1, other.Key(e), o.Count, e.First, e.Id);
-                    break;
-                }
-                if (s.K0 == o.K0 && s.K1 == o.K1 && s.Len == o.Len)
-                {
-                    s.Count += o.Count;
-                    ref Entry mine = ref _entries[s.Entry - 1];
-                    if (e.First < mine.First) mine.First = e.First;
-                    break;
-                }
-                i = (i + 1) & mask;
-            }
+            ulong h = o.Len <= 16 ? Mix(o.K0, o.K1, o.Len) : o.K0;
+            Upsert(o.K0, o.K1, h, other.Key(e), o.Count, e.First, e.Id);
         }
-        _dirty = true;
     }
 
     /// <summary>Forgets everything (after a spill).</summary>

@@ -78,10 +78,6 @@ public sealed record CountTableMetadata(
 /// </summary>
 public static class CountTableFile
 {
-    private static readonly DataField<string> TokenField = new("token", true);
-    private static readonly DataField<int> IdField = new("token_id");
-    private static readonly DataField<long> CountField = new("count");
-    private static readonly DataField<long> RankField = new("rank");
 
     /// <summary>
     /// Writes <paramref name="rows"/> atomically. Token strings of types with count below <c>meta.RedactedBelow</c>

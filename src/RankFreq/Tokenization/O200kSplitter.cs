@@ -1,5 +1,3 @@
-using System.Globalization;
-
 namespace RankFreq.Tokenization;
 
 /// <summary>
@@ -19,57 +17,11 @@ internal static class O200kSplitter
     /// <summary>The regex this splitter replaces, as Microsoft.ML.Tokenizers 2.0.1 builds it.</summary>
     public const string Pattern = @"[^\r\n\p{L}\p{N}]?[\p{Lu}\p{Lt}\p{Lm}\p{Lo}\p{M}]*[\p{Ll}\p{Lm}\p{Lo}\p{M}]+(?i:'s|'t|'re|'ve|'m|'ll|'d)?|[^\r\n\p{L}\p{N}]?[\p{Lu}\p{Lt}\p{Lm}\p{Lo}\p{M}]+[\p{Ll}\p{Lm}\p{Lo}\p{M}]*(?i:'s|'t|'re|'ve|'m|'ll|'d)?|\p{N}{1,3}| ?[^\s\p{L}\p{N}]+[\r\n/]*|\s*[\r\n]+|\s+(?!\S)|\s+";
 
-    // class bits
-    private const byte Upperish = 1, Lowerish = 2, Letter = 4, Number = 8, Space = 16, Newline = 32;
-    // every UTF-16 code unit's class bits, computed once (64 KiB): the splitter asks for one per character
-    private static readonly byte[] Table = BuildTable();
-
-    private static byte[] BuildTable()
-    {
-        var t = new byte[0x10000];
-        for (int c = 0; c < t.Length; c++) t[c] = Slow((char)c);
-        return t;
-    }
-
-    private static byte Slow(char c)
-    {
-        byte b = 0;
-        if (char.IsWhiteSpace(c)) b |= Space;
-        if (c == '\r' || c == '\n') b |= Newline;
-        switch (char.GetUnicodeCategory(c))
-        {
-            case UnicodeCategory.UppercaseLetter: case UnicodeCategory.TitlecaseLetter: b |= Upperish | Letter; break;
-            case UnicodeCategory.LowercaseLetter: b |= Lowerish | Letter; break;
-            case UnicodeCategory.ModifierLetter: case UnicodeCategory.OtherLetter: b |= Upperish | Lowerish | Letter; break;
-            case UnicodeCategory.NonSpacingMark: case UnicodeCategory.SpacingCombiningMark: case UnicodeCategory.EnclosingMark: b |= Upperish | Lowerish; break;
-            case UnicodeCategory.DecimalDigitNumber: case UnicodeCategory.LetterNumber: case UnicodeCategory.OtherNumber: b |= Number; break;
-        }
-        return b;
-    }
+    private const byte Upperish = CharClasses.Upperish, Lowerish = CharClasses.Lowerish, Letter = CharClasses.Letter,
+        Number = CharClasses.Number, Space = CharClasses.Space, Newline = CharClasses.Newline;
 
     [System.Runtime.CompilerServices.MethodImpl(System.Runtime.CompilerServices.MethodImplOptions.AggressiveInlining)]
-    private static byte Class(char c) => Table[c];
-
-    /// <summary>Calls <paramref name="chunk"/> with (offset, length) of every chunk of <paramref name="t"/>, in order.</summary>
-    public static void Split(ReadOnlySpan<char> t, Action<int, int> chunk)
-    {
-        int n = t.Length, p = 0;
-        while (p < n)
-        {
-            int e = Match(t, p);
-            if (e <= p) { p++; continue; } // no alternative matches this character: the regex skips it
-            chunk(p, e - p);
-            p = e;
-        }
-    }
-
-    /// <summary>Chunks as a list (used by tests).</summary>
-    public static List<(int Offset, int Length)> Chunks(ReadOnlySpan<char> t)
-    {
-        var list = new List<(int, int)>();
-        Split(t, (o, l) => list.Add((o, l)));
-        return list;
-    }
+    private static byte Class(char c) => CharClasses.Of(c);
 
     /// <summary>End of the chunk starting at <paramref name="p"/>, or <paramref name="p"/> when nothing matches.</summary>
     internal static int Match(ReadOnlySpan<char> t, int p)

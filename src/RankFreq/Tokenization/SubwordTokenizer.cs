@@ -26,9 +26,6 @@ public sealed class SubwordTokenizer : ITokenizer
     private readonly string[] _display;
     private readonly ChunkMatcher? _splitter; // the hand-written equivalent of a tiktoken encoding's regex
 
-    /// <summary>End of the chunk of <paramref name="t"/> that starts at <paramref name="p"/> (<paramref name="p"/> when none).</summary>
-    internal delegate int ChunkMatcher(ReadOnlySpan<char> t, int p);
-
     private SubwordTokenizer(string spec, Tokenizer tokenizer, PreTokenizer? pre, string[] display, ChunkMatcher? splitter = null, string[]? base64 = null)
     {
         _base64 = base64;
@@ -96,20 +93,13 @@ public sealed class SubwordTokenizer : ITokenizer
         var parse = Task.Run(() => ParseTiktokenBase64(file));
         // The pre-tokenizer regex without special-token splitting. Building the library's own tokenizer just to read
         // its regex would load the vocabulary a second time, so the patterns are kept here; a test checks them
-        // against the library's. Counting uses the hand-written splitters instead of the regex.
-        string pattern = TiktokenPatterns[encoding];
-        // counting splits with hand-written equivalents; the regex stays for whole-text encoding and as the tests' reference
-        var pre = new RegexPreTokenizer(new Regex(pattern, RegexOptions.None), null);
+        // against the library's. Counting splits with hand-written equivalents; the regex stays for whole-text
+        // encoding and as the tests' reference.
+        var pre = new RegexPreTokenizer(new Regex(TiktokenPatterns[encoding], RegexOptions.None), null);
         raw.Position = 0;
         var tok = TiktokenTokenizer.Create(raw, pre, normalizer: null, specialTokens: null);
         var base64 = parse.GetAwaiter().GetResult();
-        ChunkMatcher splitter = encoding switch
-        {
-            "o200k_base" => O200kSplitter.Match,
-            "cl100k_base" => TiktokenSplitters.MatchCl100k,
-            _ => TiktokenSplitters.MatchR50k,
-        };
-        return new SubwordTokenizer(encoding, tok, pre, new string[base64.Length], splitter, base64);
+        return new SubwordTokenizer(encoding, tok, pre, new string[base64.Length], TiktokenSplitters.For(encoding), base64);
     }
 
     /// <summary>The pre-tokenizer patterns of Microsoft.ML.Tokenizers 2.0.1 for the embedded encodings.</summary>

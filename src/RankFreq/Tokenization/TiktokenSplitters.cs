@@ -3,6 +3,56 @@ using System.Runtime.CompilerServices;
 
 namespace RankFreq.Tokenization;
 
+/// <summary>End of the chunk of <paramref name="t"/> that starts at <paramref name="p"/> (<paramref name="p"/> when no rule matches).</summary>
+internal delegate int ChunkMatcher(ReadOnlySpan<char> t, int p);
+
+/// <summary>
+/// Class bits of every UTF-16 code unit, computed once (64 KiB), as .NET's regex engine sees them: a surrogate is
+/// neither a letter nor a number; \s is <see cref="char.IsWhiteSpace(char)"/>. Shared by the tiktoken splitters.
+/// </summary>
+internal static class CharClasses
+{
+    /// <summary>Lu, Lt, Lm, Lo or a mark (o200k's upper-case class).</summary>
+    public const byte Upperish = 1;
+    /// <summary>Ll, Lm, Lo or a mark (o200k's lower-case class).</summary>
+    public const byte Lowerish = 2;
+    /// <summary>\p{L}: Lu Ll Lt Lm Lo.</summary>
+    public const byte Letter = 4;
+    /// <summary>\p{N}: Nd Nl No.</summary>
+    public const byte Number = 8;
+    /// <summary>\s.</summary>
+    public const byte Space = 16;
+    /// <summary>\r or \n.</summary>
+    public const byte Newline = 32;
+
+    private static readonly byte[] Table = Build();
+
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public static byte Of(char c) => Table[c];
+
+    private static byte[] Build()
+    {
+        var t = new byte[0x10000];
+        for (int i = 0; i < t.Length; i++)
+        {
+            char c = (char)i;
+            byte b = 0;
+            if (char.IsWhiteSpace(c)) b |= Space;
+            if (c == '\r' || c == '\n') b |= Newline;
+            switch (char.GetUnicodeCategory(c))
+            {
+                case UnicodeCategory.UppercaseLetter: case UnicodeCategory.TitlecaseLetter: b |= Upperish | Letter; break;
+                case UnicodeCategory.LowercaseLetter: b |= Lowerish | Letter; break;
+                case UnicodeCategory.ModifierLetter: case UnicodeCategory.OtherLetter: b |= Upperish | Lowerish | Letter; break;
+                case UnicodeCategory.NonSpacingMark: case UnicodeCategory.SpacingCombiningMark: case UnicodeCategory.EnclosingMark: b |= Upperish | Lowerish; break;
+                case UnicodeCategory.DecimalDigitNumber: case UnicodeCategory.LetterNumber: case UnicodeCategory.OtherNumber: b |= Number; break;
+            }
+            t[i] = b;
+        }
+        return t;
+    }
+}
+
 /// <summary>
 /// Hand-written equivalents of the cl100k_base and r50k_base pre-tokenizer regexes (as Microsoft.ML.Tokenizers 2.0.1
 /// builds them; see <see cref="SubwordTokenizer.TiktokenPatterns"/>), which dominate the cost of counting with those
@@ -13,38 +63,37 @@ namespace RankFreq.Tokenization;
 /// </summary>
 internal static class TiktokenSplitters
 {
-    private const byte L = 1, N = 2, S = 4, Nl = 8;
-
-    // every UTF-16 code unit's class bits, computed once (64 KiB)
-    private static readonly byte[] Table = Build();
-
-    private static byte[] Build()
+    /// <summary>The hand-written splitter of a tiktoken encoding.</summary>
+    public static ChunkMatcher For(string encoding) => encoding switch
     {
-        var t = new byte[0x10000];
-        for (int i = 0; i < t.Length; i++)
+        "o200k_base" => O200kSplitter.Match,
+        "cl100k_base" => MatchCl100k,
+        "r50k_base" => MatchR50k,
+        _ => throw new ArgumentException($"no splitter for {encoding}", nameof(encoding)),
+    };
+
+    /// <summary>(offset, length) of every chunk of <paramref name="t"/>, in order; a character no rule matches is skipped, as the regex skips it.</summary>
+    public static List<(int Offset, int Length)> Chunks(ChunkMatcher match, ReadOnlySpan<char> t)
+    {
+        var list = new List<(int, int)>();
+        int p = 0;
+        while (p < t.Length)
         {
-            char c = (char)i;
-            byte b = 0;
-            switch (char.GetUnicodeCategory(c))
-            {
-                case UnicodeCategory.UppercaseLetter: case UnicodeCategory.LowercaseLetter: case UnicodeCategory.TitlecaseLetter:
-                case UnicodeCategory.ModifierLetter: case UnicodeCategory.OtherLetter:
-                    b |= L; break;
-                case UnicodeCategory.DecimalDigitNumber: case UnicodeCategory.LetterNumber: case UnicodeCategory.OtherNumber:
-                    b |= N; break;
-            }
-            if (char.IsWhiteSpace(c)) b |= S;
-            if (c is '\r' or '\n') b |= Nl;
-            t[i] = b;
+            int e = match(t, p);
+            if (e <= p) { p++; continue; }
+            list.Add((p, e - p));
+            p = e;
         }
-        return t;
+        return list;
     }
 
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static byte Class(char c) => Table[c];
+    private static byte Class(char c) => CharClasses.Of(c);
 
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static bool IsOther(char c) => (Table[c] & (L | N | S)) == 0; // [^\s\p{L}\p{N}]
+    private static bool IsOther(char c) => (CharClasses.Of(c) & (L | N | S)) == 0; // [^\s\p{L}\p{N}]
+
+    private const byte L = CharClasses.Letter, N = CharClasses.Number, S = CharClasses.Space, Nl = CharClasses.Newline;
 
     /// <summary>
     /// End of the cl100k_base chunk starting at <paramref name="p"/>:

@@ -125,30 +125,10 @@ public class TiktokenSplitterTests
     private static readonly Dictionary<string, Microsoft.ML.Tokenizers.PreTokenizer> Regexes = new[] { "o200k_base", "cl100k_base", "r50k_base" }
         .ToDictionary(e => e, e => Microsoft.ML.Tokenizers.TiktokenTokenizer.CreateForEncoding(e).PreTokenizer!);
 
-    private static List<(int, int)> Hand(string encoding, string text)
-    {
-        SubwordTokenizer.ChunkMatcher match = encoding switch
-        {
-            "o200k_base" => O200kSplitter.Match,
-            "cl100k_base" => TiktokenSplitters.MatchCl100k,
-            _ => TiktokenSplitters.MatchR50k,
-        };
-        var list = new List<(int, int)>();
-        int p = 0;
-        while (p < text.Length)
-        {
-            int e = match(text, p);
-            if (e <= p) { p++; continue; }
-            list.Add((p, e - p));
-            p = e;
-        }
-        return list;
-    }
-
     private static void Same(string encoding, string text, string what)
     {
         var expected = Regexes[encoding].PreTokenize(text).ToList();
-        var got = Hand(encoding, text);
+        var got = TiktokenSplitters.Chunks(TiktokenSplitters.For(encoding), text);
         if (expected.SequenceEqual(got)) return;
         int i = 0;
         while (i < Math.Min(expected.Count, got.Count) && expected[i] == got[i]) i++;
