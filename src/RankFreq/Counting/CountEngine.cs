@@ -182,8 +182,10 @@ public static class CountEngine
         public void AddPackedTokens(ReadOnlySpan<PackedToken> tokens)
         {
             Table.AddPacked(tokens, TokenTable.PackPosition(_unit, _pos));
+            long before = _pos;
             _pos += tokens.Length;
-            if (Table.MemoryBytes > _budget) _spill.Spill(Table);
+            // memory is looked at every 65,536 tokens, as in AddToken: a run per batch would flood the spill folder
+            if ((before >> 16) != (_pos >> 16) && Table.MemoryBytes > _budget) _spill.Spill(Table);
         }
 
         public void AddId(int id) => AddIds(new ReadOnlySpan<int>(in id));

@@ -109,7 +109,7 @@ internal static class RankBuilder
             bufBytes = 0;
         }
         RunRecord? cur = null;
-        foreach (var rec in RunMerge.Merge(spill.Phase1.ToList(), RunMerge.ByKey))
+        foreach (var rec in RunMerge.Merge(spill.Phase1.ToList(), RunMerge.ByKey, spill.NewPath))
         {
             if (cur is not null && cur.Key.AsSpan().SequenceEqual(rec.Key))
             {
@@ -165,7 +165,7 @@ internal static class RankBuilder
             var tokens = new List<string?>(batchSize);
             var counts = new List<long>(batchSize);
             var ids = new List<int>(withIds ? batchSize : 0);
-            foreach (var r in RunMerge.Merge(runs, RunMerge.ByRank))
+            foreach (var r in RunMerge.Merge(runs, RunMerge.ByRank, spill.NewPath))
             {
                 tokens.Add(Encoding.UTF8.GetString(r.Key));
                 counts.Add(r.Count);

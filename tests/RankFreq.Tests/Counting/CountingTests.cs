@@ -128,6 +128,32 @@ public class CountingTests
     }
 
     [Fact]
+    public void ManyRunsMergeInBoundedFanInAndLeaveNoIntermediateFiles()
+    {
+        // more runs than may be open at once: merged through intermediate runs, which are deleted; records complete and in order
+        using var d = new TempDir();
+        var rng = new Random(4);
+        var runs = new List<string>();
+        var all = new List<string>();
+        int runCount = RunMerge.MaxFanIn * 2 + 7;
+        for (int r = 0; r < runCount; r++)
+        {
+            var keys = Enumerable.Range(0, 20).Select(_ => "k" + rng.Next(5000)).Distinct(StringComparer.Ordinal).Order(StringComparer.Ordinal).ToList();
+            string path = d[$"run{r}.bin"];
+            using (var w = new RunWriter(path))
+                foreach (var k in keys) w.Write(System.Text.Encoding.UTF8.GetBytes(k), 1, r, -1);
+            runs.Add(path);
+            all.AddRange(keys);
+        }
+        int made = 0;
+        var merged = RunMerge.Merge(runs, RunMerge.ByKey, () => d[$"mid{made++}.bin"]).Select(x => System.Text.Encoding.UTF8.GetString(x.Key)).ToList();
+        Assert.Equal(all.Order(StringComparer.Ordinal), merged);
+        Assert.True(made >= 3, "no intermediate runs were made");
+        Assert.Empty(Directory.GetFiles(d.Path, "mid*"));
+        Assert.Equal(runCount, Directory.GetFiles(d.Path, "run*").Length); // the caller's runs are the caller's to delete
+    }
+
+    [Fact]
     public void GrowthIsObservedInCorpusOrder()
     {
         using var d = new TempDir();
