@@ -3,6 +3,7 @@ using System.Diagnostics;
 using System.Text;
 using RankFreq.Sources;
 using RankFreq.Tokenization;
+using RankFreq.Primitives;
 
 namespace RankFreq.Counting;
 
@@ -13,20 +14,17 @@ namespace RankFreq.Counting;
 /// </summary>
 public static class CountEngine
 {
-    /// <summary>Counts <paramref name="inputs"/> (files, folders, "-"). Throws <see cref="SourceException"/>,
-    /// <see cref="TokenizerException"/> or <see cref="CountingException"/> with a message naming the cause.</summary>
-    public static CountResult Count(IReadOnlyList<string> inputs, CountSettings settings, IProgress<CountProgress>? progress = null, CancellationToken ct = default)
+    /// <summary>
+    /// Counts <paramref name="files"/> (already expanded and, for a shard, selected; see the count job) with
+    /// <paramref name="tokenizer"/>. Throws <see cref="SourceException"/>, <see cref="TokenizerException"/> or
+    /// <see cref="CountingException"/> with a message naming the cause; on any failure or cancellation every spill
+    /// run is removed before the exception leaves.
+    /// </summary>
+    public static CountResult Count(ITokenizer tokenizer, IReadOnlyList<InputFile> files, IReadOnlyList<SkippedFile> skipped,
+        CountSettings settings, IProgress<CountProgress>? progress = null, CancellationToken ct = default)
     {
         var sw = Stopwatch.StartNew();
-        var tokenizer = TokenizerFactory.Create(settings.Tokenizer);
         var source = settings.Source ?? new SourceOptions();
-        var (files, skipped) = InputPlanner.Expand(inputs, source);
-        if (settings.ShardCount > 0)
-        {
-            if (settings.ShardIndex < 1 || settings.ShardIndex > settings.ShardCount)
-                throw new CountingException($"shard {settings.ShardIndex}/{settings.ShardCount}: K must be between 1 and N");
-            files = files.Where((_, i) => i % settings.ShardCount == settings.ShardIndex - 1).ToList();
-        }
         int threads = settings.EffectiveThreads;
         // more ranges than threads, handed out one at a time, so a slow range does not leave a core idle at the end
         var units = InputPlanner.Plan(files, tokenizer.RangeCut, threads > 1 ? threads * 8 : 1, settings.SplitAboveBytes);
@@ -79,7 +77,8 @@ public static class CountEngine
             foreach (var w in workers) stats.Add(w.Stats);
             long tokens = unitTokens.Sum();
             if (tokens == 0)
-                throw new CountingException($"no tokens found in {string.Join(", ", inputs)}" + (skipped.Count > 0 ? $" ({skipped.Count} file(s) skipped as binary)" : ""));
+                throw new CountingException($"no tokens found in {string.Join(", ", files.Select(f => f.Path))}"
+                    + (skipped.Count > 0 ? $" ({skipped.Count} file(s) skipped as binary)" : ""));
             var unitStart = new long[units.Count];
             for (int i = 1; i < units.Count; i++) unitStart[i] = unitStart[i - 1] + unitTokens[i - 1];
             var checkpoints = GrowthCurve.Checkpoints(tokens);
@@ -175,13 +174,13 @@ public static class CountEngine
 
         public void AddToken(ReadOnlySpan<byte> utf8)
         {
-            Table.Add(utf8, 1, TokenTable.PackPosition(_unit, _pos));
+            Table.Add(utf8, 1, KeyPacking.PackPosition(_unit, _pos));
             if ((++_pos & 0xFFFF) == 0 && Table.MemoryBytes > _budget) _spill.Spill(Table);
         }
 
         public void AddPackedTokens(ReadOnlySpan<PackedToken> tokens)
         {
-            Table.AddPacked(tokens, TokenTable.PackPosition(_unit, _pos));
+            Table.AddPacked(tokens, KeyPacking.PackPosition(_unit, _pos));
             long before = _pos;
             _pos += tokens.Length;
             // memory is looked at every 65,536 tokens, as in AddToken: a run per batch would flood the spill folder
@@ -195,40 +194,9 @@ public static class CountEngine
             long[] counts = IdCounts!;
             foreach (int id in ids)
             {
-                if (counts[id]++ == 0) IdFirst![id] = TokenTable.PackPosition(_unit, _pos);
+                if (counts[id]++ == 0) IdFirst![id] = KeyPacking.PackPosition(_unit, _pos);
                 _pos++;
             }
         }
-    }
-}
-
-/// <summary>Counts types by the growth checkpoint at which each was first seen.</summary>
-internal sealed class GrowthHistogram(long[] checkpoints, long[]? unitStart)
-{
-    private readonly long[] _hist = new long[checkpoints.Length + 1];
-
-    /// <summary>Records a type first seen at packed position <paramref name="first"/>.</summary>
-    public void Add(long first)
-    {
-        if (unitStart is null || first == long.MaxValue) return;
-        long global = unitStart[(int)(first >> 40)] + (first & ((1L << 40) - 1));
-        // first checkpoint c with checkpoints[c] > global: the type is counted from there on
-        int lo = 0, hi = checkpoints.Length;
-        while (lo < hi)
-        {
-            int mid = (lo + hi) >>> 1;
-            if (checkpoints[mid] > global) hi = mid;
-            else lo = mid + 1;
-        }
-        _hist[lo]++;
-    }
-
-    public GrowthCurve ToCurve()
-    {
-        if (unitStart is null) return new GrowthCurve([], []);
-        var types = new long[checkpoints.Length];
-        long run = 0;
-        for (int c = 0; c < checkpoints.Length; c++) { run += _hist[c]; types[c] = run; }
-        return new GrowthCurve(checkpoints, types);
     }
 }
