@@ -11,4 +11,8 @@ namespace RankFreq.Lexical;
 /// <param name="HeapsK">K of V = K N^β.</param>
 /// <param name="HeapsBeta">β of V = K N^β.</param>
 /// <param name="HeapsMethod">How Heaps' law was fitted.</param>
-public sealed record GrowthAnalysis(long[] Tokens, long[] Observed, double[] Expected, double[] Binomial, double HeapsK, double HeapsBeta, string HeapsMethod);
+public sealed record GrowthAnalysis(long[] Tokens, long[] Observed, double[] Expected, double[] Binomial, double HeapsK, double HeapsBeta, string HeapsMethod)
+{
+    /// <summary>Heaps' law at <paramref name="tokens"/>: K·N^β.</summary>
+    public double HeapsAt(double tokens) => HeapsK * Math.Pow(tokens, HeapsBeta);
+}

@@ -43,6 +43,6 @@ public static class TableFiles
             await rg.WriteAsync<long>(o, g.Observed);
             await rg.WriteAsync<double>(e, g.Expected);
             await rg.WriteAsync<double>(b, g.Binomial);
-            await rg.WriteAsync<double>(h, g.Tokens.Select(t => g.HeapsK * Math.Pow(t, g.HeapsBeta)).ToArray());
+            await rg.WriteAsync<double>(h, g.Tokens.Select(t => g.HeapsAt(t)).ToArray());
         });
 }
