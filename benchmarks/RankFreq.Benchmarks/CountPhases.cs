@@ -9,7 +9,7 @@ namespace RankFreq.Benchmarks;
 /// (2 threads, default settings) and the count-table write of its result. Two rounds each, no warm-up, as the
 /// first round's start-up cost is part of what a command pays (per-round times are in the log).</summary>
 [Config(typeof(InputFileConfig))]
-[SimpleJob(RunStrategy.Monitoring, launchCount: 1, warmupCount: 0, iterationCount: 2)]
+[DefaultJob("Monitoring", RunStrategy.Monitoring, launchCount: 1, warmupCount: 0, iterationCount: 2)]
 public class CountPhases
 {
     private string _input = "";

@@ -11,7 +11,7 @@ namespace RankFreq.Benchmarks;
 /// cost (type loading, compilation) is included: RankFreq's FlatParquetWriter (Zstd level 1, the count tables'
 /// writer) against Parquet.Net with several settings (CompressionLevel.Optimal; dictionary threshold 0.8 or off).
 /// Rows are built in the setup, not timed.</summary>
-[SimpleJob(RunStrategy.ColdStart, launchCount: 3, warmupCount: 0, iterationCount: 1)]
+[DefaultJob("ColdStart", RunStrategy.ColdStart, launchCount: 3, warmupCount: 0, iterationCount: 1)]
 public class CountTableWriteCold
 {
     private string?[] _tokens = [];

@@ -1,4 +1,5 @@
 using BenchmarkDotNet.Attributes;
+using BenchmarkDotNet.Engines;
 using RankFreq.Counting;
 using RankFreq.Fitting;
 using RankFreq.Tokenization;
@@ -6,7 +7,7 @@ using RankFreq.Tokenization;
 namespace RankFreq.Benchmarks;
 
 /// <summary>Kernels timed by BenchmarkDotNet on synthetic inputs built in the setup.</summary>
-[ShortRunJob]
+[DefaultJob("ShortRun", RunStrategy.Throughput, launchCount: 1, warmupCount: 3, iterationCount: 3)]
 [MemoryDiagnoser]
 public class Kernels
 {

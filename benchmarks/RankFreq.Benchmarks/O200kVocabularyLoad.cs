@@ -11,7 +11,7 @@ namespace RankFreq.Benchmarks;
 /// cost included): loading the data assembly and inflating the vocabulary, RankFreq's base64 parse of it, the
 /// library's TiktokenTokenizer.Create from it, the first encode; and the whole SubwordTokenizer.Tiktoken load a
 /// `count -t o200k_base` pays (the create and the parse run side by side there).</summary>
-[SimpleJob(RunStrategy.ColdStart, launchCount: 5, warmupCount: 0, iterationCount: 1)]
+[DefaultJob("ColdStart", RunStrategy.ColdStart, launchCount: 5, warmupCount: 0, iterationCount: 1)]
 public class O200kVocabularyLoad
 {
     private byte[] _raw = [];

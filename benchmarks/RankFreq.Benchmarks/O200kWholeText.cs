@@ -10,7 +10,7 @@ namespace RankFreq.Benchmarks;
 /// process, as before (benchmarks/peers/count-vs-unix.sh sets the number of processes with --launchCount); the
 /// token total is printed for comparison with `rankfreq count -t o200k_base`.</summary>
 [Config(typeof(InputFileConfig))]
-[SimpleJob(RunStrategy.ColdStart, launchCount: 1, warmupCount: 0, iterationCount: 1)]
+[DefaultJob("ColdStart", RunStrategy.ColdStart, launchCount: 1, warmupCount: 0, iterationCount: 1)]
 public class O200kWholeText
 {
     private Tokenizer _tok = null!;

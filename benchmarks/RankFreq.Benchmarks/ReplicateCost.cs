@@ -1,4 +1,5 @@
 using BenchmarkDotNet.Attributes;
+using BenchmarkDotNet.Engines;
 using RankFreq.Counting;
 using RankFreq.Fitting;
 
@@ -8,7 +9,7 @@ namespace RankFreq.Benchmarks;
 /// spectrum (the replicate the fitter runs: binomial splitting + rejection–inversion tail, full xmin search) and per
 /// type (10^6 sampled values, sorted, MLE and KS per candidate over the array). The Ratio column is the speed-up.</summary>
 /// <remarks>Each invocation draws a new replicate (stream index counts up), as a bootstrap does.</remarks>
-[ShortRunJob]
+[DefaultJob("ShortRun", RunStrategy.Throughput, launchCount: 1, warmupCount: 3, iterationCount: 3)]
 public class ReplicateCost
 {
     private FrequencySpectrum _data = null!;

@@ -12,7 +12,7 @@ namespace RankFreq.Benchmarks;
 /// it), a bare scan for ASCII letter/digit runs (the floor for any tokenizer), and the keep-case tokenizer in blocks
 /// and in one block. Seven rounds after one warm-up; the Min column is the best of seven.</summary>
 [Config(typeof(InputFileConfig))]
-[SimpleJob(RunStrategy.Monitoring, launchCount: 1, warmupCount: 1, iterationCount: 7)]
+[DefaultJob("Monitoring", RunStrategy.Monitoring, launchCount: 1, warmupCount: 1, iterationCount: 7)]
 [MinColumn]
 public class WordsOverFile
 {
