@@ -19,5 +19,7 @@ internal static class BenchInput
 
     /// <summary>The input file's path; throws with the reason when it is not set or not there.</summary>
     public static string PathFor(string benchmark) =>
-        Problem(benchmark) is { } problem ? throw new InvalidOperationException(problem) : Environment.GetEnvironmentVariable(Variable)!;
+        Problem(benchmark) is { } problem
+            ? throw new InvalidOperationException(problem)
+            : Environment.GetEnvironmentVariable(Variable)!;
 }

@@ -19,7 +19,8 @@ public class Kernels
     {
         var rng = new Random(1);
         var words = Enumerable.Range(0, 5000).Select(i => (i % 7 == 0 ? "Ünï" : "word") + i).ToArray();
-        _text = System.Text.Encoding.UTF8.GetBytes(string.Join(' ', Enumerable.Range(0, 400_000).Select(_ => words[(int)(Math.Pow(rng.NextDouble(), 3) * 5000)])));
+        _text = System.Text.Encoding.UTF8.GetBytes(string.Join(' ',
+            Enumerable.Range(0, 400_000).Select(_ => words[(int)(Math.Pow(rng.NextDouble(), 3) * 5000)])));
         _spec = SyntheticSpectra.PowerLaw(200_000);
     }
 

@@ -6,9 +6,9 @@ namespace RankFreq.Benchmarks;
 
 /// <summary>The baseline for o200k_base counting: the library's own tokenizer
 /// (<c>TiktokenTokenizer.CreateForEncoding("o200k_base").EncodeToIds</c>) over the whole file named by
-/// RANKFREQ_BENCH_INPUT, one thread. Vocabulary loading and file reading are in the setup, not timed. One call per
-/// process, as before (benchmarks/peers/count-vs-unix.sh sets the number of processes with --launchCount); the
-/// token total is printed for comparison with `rankfreq count -t o200k_base`.</summary>
+/// RANKFREQ_BENCH_INPUT, one thread. Vocabulary loading and file reading are in the setup, not timed. One call in
+/// one fresh process, as before (benchmarks/peers/count-vs-unix.sh runs it once per round; --launchCount N gives N);
+/// the token total is printed for comparison with `rankfreq count -t o200k_base`.</summary>
 [Config(typeof(InputFileConfig))]
 [DefaultJob("ColdStart", RunStrategy.ColdStart, launchCount: 1, warmupCount: 0, iterationCount: 1)]
 public class O200kWholeText
