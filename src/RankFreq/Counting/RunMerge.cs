@@ -1,3 +1,4 @@
+using RankFreq.Primitives;
 namespace RankFreq.Counting;
 
 /// <summary>
@@ -55,9 +56,5 @@ internal static class RunMerge
     public static readonly IComparer<RunRecord> ByKey = Comparer<RunRecord>.Create((a, b) => a.Key.AsSpan().SequenceCompareTo(b.Key));
 
     /// <summary>Rank order: count descending, ties by key bytes.</summary>
-    public static readonly IComparer<RunRecord> ByRank = Comparer<RunRecord>.Create((a, b) =>
-    {
-        int c = b.Count.CompareTo(a.Count);
-        return c != 0 ? c : a.Key.AsSpan().SequenceCompareTo(b.Key);
-    });
+    public static readonly IComparer<RunRecord> ByRank = Comparer<RunRecord>.Create((a, b) => RankOrder.Compare(a.Count, a.Key, b.Count, b.Key));
 }

@@ -136,27 +136,12 @@ public sealed class WordTokenizer(bool keepCase) : ITokenizer
     private sealed class Session(ITokenSink sink, bool keepCase, bool vectorized) : ITokenizerSession
     {
         private ulong[] _bits = new ulong[2 * ((1 << 20) / 64 + 2)];
-        private byte[] _carry = new byte[256];
-        private int _carryLen;
+        private readonly HoldBack<byte> _held = new();
         private byte[] _bytes = new byte[256];
         private char[] _chars = new char[256];
         private char[] _chars2 = new char[256];
 
-        public void Feed(ReadOnlySpan<byte> utf8, bool endOfDocument)
-        {
-            if (_carryLen == 0)
-            {
-                Process(utf8, endOfDocument);
-                return;
-            }
-            int total = _carryLen + utf8.Length;
-            byte[] joined = ArrayPool<byte>.Shared.Rent(total);
-            _carry.AsSpan(0, _carryLen).CopyTo(joined);
-            utf8.CopyTo(joined.AsSpan(_carryLen));
-            _carryLen = 0;
-            try { Process(joined.AsSpan(0, total), endOfDocument); }
-            finally { ArrayPool<byte>.Shared.Return(joined); }
-        }
+        public void Feed(ReadOnlySpan<byte> utf8, bool endOfDocument) => Process(_held.Join(utf8), endOfDocument);
 
         private void Process(ReadOnlySpan<byte> s, bool eod)
         {
@@ -447,12 +432,7 @@ public sealed class WordTokenizer(bool keepCase) : ITokenizer
             return true;
         }
 
-        private void Hold(ReadOnlySpan<byte> tail)
-        {
-            if (_carry.Length < tail.Length) _carry = new byte[Math.Max(tail.Length, _carry.Length * 2)];
-            tail.CopyTo(_carry);
-            _carryLen = tail.Length;
-        }
+        private void Hold(ReadOnlySpan<byte> tail) => _held.Hold(tail);
 
         private void EmitAscii(ReadOnlySpan<byte> tok)
         {
