@@ -21,7 +21,8 @@ public sealed record FrequencySpectrum(long[] Values, long[] Types)
     }
 
     /// <summary>Equal when the (value, multiplicity) pairs are equal.</summary>
-    public bool Equals(FrequencySpectrum? other) => other is not null && Values.AsSpan().SequenceEqual(other.Values) && Types.AsSpan().SequenceEqual(other.Types);
+    public bool Equals(FrequencySpectrum? other) =>
+        other is not null && Values.AsSpan().SequenceEqual(other.Values) && Types.AsSpan().SequenceEqual(other.Types);
 
     /// <inheritdoc/>
     public override int GetHashCode() => HashCode.Combine(Values.Length, TypeCount, TokenCount);

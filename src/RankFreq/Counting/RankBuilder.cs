@@ -5,7 +5,8 @@ namespace RankFreq.Counting;
 /// <summary>Turns worker tables (and spill runs) into the rank table, the spectrum and the growth histogram.</summary>
 internal static class RankBuilder
 {
-    public static (ICountRows Rows, FrequencySpectrum Spectrum) Build(List<TokenTable> tables, SpillSet spill, long budget, GrowthHistogram growth, bool withIds = false)
+    public static (ICountRows Rows, FrequencySpectrum Spectrum) Build(List<TokenTable> tables, SpillSet spill, long budget,
+        GrowthHistogram growth, bool withIds = false)
     {
         if (spill.Phase1.Count == 0)
         {

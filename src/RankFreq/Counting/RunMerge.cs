@@ -11,7 +11,8 @@ internal static class RunMerge
     /// <summary>Most runs read at the same time.</summary>
     public const int MaxFanIn = 128;
 
-    /// <summary>The records of <paramref name="runs"/> in <paramref name="order"/>; <paramref name="newPath"/> names intermediate runs, which are deleted when merged.</summary>
+    /// <summary>The records of <paramref name="runs"/> in <paramref name="order"/>; <paramref name="newPath"/> names
+    /// intermediate runs, which are deleted when merged.</summary>
     public static IEnumerable<RunRecord> Merge(IReadOnlyList<string> runs, IComparer<RunRecord> order, Func<string> newPath)
     {
         var level = runs.ToList();

@@ -8,7 +8,10 @@ namespace RankFreq.Storage;
 /// <summary>Small Parquet tables of the profile: spectrum and growth.</summary>
 public static class TableFiles
 {
-    private static ParquetOptions Options => new() { CompressionMethod = CompressionMethod.Zstd, CompressionLevel = System.IO.Compression.CompressionLevel.Optimal };
+    private static ParquetOptions Options => new()
+    {
+        CompressionMethod = CompressionMethod.Zstd, CompressionLevel = System.IO.Compression.CompressionLevel.Optimal,
+    };
 
     /// <summary>Columns frequency (int64) and types (int64): how many types occur exactly that often.</summary>
     public static Task WriteSpectrumAsync(string path, FrequencySpectrum s, CancellationToken ct = default) =>
