@@ -5,7 +5,7 @@ Scenario: the archive of Gullhaven Coast Radio, a fictional weather-and-shipping
 invented Merrow Isles, 1960-2019. Three document sets, one JSON Lines file each, in corpus/:
   bulletins.jsonl  shipping bulletins: formal, repetitive; the fewest types
   letters.jsonl    listener letters: everyday speech; a wider vocabulary
-  tales.jsonl      transcribed tales in the islands' old tongue: the richest vocabulary, long compound words
+  tales.jsonl      tales told in the islands' old tongue: the richest vocabulary, long compound words
                    with unusual letter clusters (more subword pieces per word)
 Every record is {"id", "set", "year", "text"}; records are in year order within a file.
 

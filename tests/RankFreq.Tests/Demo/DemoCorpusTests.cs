@@ -118,7 +118,7 @@ public class DemoCorpusTests
     {
         // Planted drift: the burst probability falls from 0.8 (1960) to 0.4 (2019), so a later record repeats fewer
         // words. Richness compared at a common size by rarefaction, E[V(M)] from the spectrum (Baayen 2001, Word
-        // Frequency Distributions, eq. 2.41, from memory): lexical figures depend on sample size, so raw type counts of
+        // Frequency Distributions, ch. 2, from memory): lexical figures depend on sample size, so raw type counts of
         // bins of different sizes would not be comparable. Designed effect per set: about +20–30% types from the
         // 1960–1979 bin to the 2000–2019 bin; asserted: at least +10%.
         using var d = new TempDir();
