@@ -2,6 +2,7 @@ using System.Diagnostics;
 using System.Text.Json;
 using RankFreq.Counting;
 using RankFreq.Fitting;
+using RankFreq.Jobs;
 using RankFreq.Lexical;
 using Xunit;
 
@@ -40,13 +41,13 @@ public class DemoCorpusTests
 
     private static FrequencySpectrum Spectrum(params string[] inputs)
     {
-        using var r = CountEngine.Count(inputs, new CountSettings());
+        using var r = CountJob.Count(inputs, new CountSettings());
         return r.Spectrum;
     }
 
     private static (long Tokens, long Types) Totals(string input, string tokenizer)
     {
-        using var r = CountEngine.Count([input], new CountSettings(Tokenizer: tokenizer));
+        using var r = CountJob.Count([input], new CountSettings(Tokenizer: tokenizer));
         return (r.Summary.Tokens, r.Summary.Types);
     }
 
