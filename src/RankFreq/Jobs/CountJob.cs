@@ -1,4 +1,5 @@
 using RankFreq.Counting;
+using RankFreq.Primitives;
 using RankFreq.Sources;
 using RankFreq.Storage;
 using RankFreq.Tokenization;
@@ -45,7 +46,11 @@ public static class CountJob
     {
         if (settings.ShardCount <= 0) return files;
         if (settings.ShardIndex < 1 || settings.ShardIndex > settings.ShardCount)
-            throw new CountingException($"shard {settings.ShardIndex}/{settings.ShardCount}: K must be between 1 and N");
-        return files.Where((_, i) => i % settings.ShardCount == settings.ShardIndex - 1).ToList();
+            throw new SettingsException($"shard {settings.ShardIndex}/{settings.ShardCount}: K must be between 1 and N");
+        var part = files.Where((_, i) => i % settings.ShardCount == settings.ShardIndex - 1).ToList();
+        if (part.Count == 0)
+            throw new CountingException($"shard {settings.ShardIndex}/{settings.ShardCount} has no files: shards split by "
+                + $"file, and the inputs hold {files.Count} file{(files.Count == 1 ? "" : "s")}, so N can be at most {files.Count}");
+        return part;
     }
 }

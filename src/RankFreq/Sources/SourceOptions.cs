@@ -19,4 +19,7 @@ public sealed record SourceOptions(
 {
     /// <summary>Compressed files at least this large (stored size) are decompressed on a second thread while counting.</summary>
     public long ReadAheadAboveBytes { get; init; } = 4L << 20;
+
+    /// <summary>Folders whose files are never taken from a folder input (a job's own output folder).</summary>
+    public IReadOnlyList<string>? SkipFolders { get; init; }
 }
