@@ -50,7 +50,8 @@ internal static class Completion
         var sb = new StringBuilder();
         sb.Append("# rankfreq completion; load with: source <(rankfreq completion bash)\n");
         sb.Append("_rankfreq() {\n  local cur=${COMP_WORDS[COMP_CWORD]} prev=${COMP_WORDS[COMP_CWORD-1]} opts=\n");
-        sb.Append($"  if [[ $COMP_CWORD -eq 1 ]]; then\n    COMPREPLY=($(compgen -W \"{string.Join(' ', verbs.Select(v => v.Name))} --help --version\" -- \"$cur\"))\n    return\n  fi\n");
+        string words = string.Join(' ', verbs.Select(v => v.Name)) + " --help --version";
+        sb.Append($"  if [[ $COMP_CWORD -eq 1 ]]; then\n    COMPREPLY=($(compgen -W \"{words}\" -- \"$cur\"))\n    return\n  fi\n");
         sb.Append("  case $prev in\n");
         foreach (var group in verbs.SelectMany(v => v.Options).SelectMany(o => o.Aliases.Prepend(o.Name)).Distinct()
                      .Select(n => (n, v: Values(n))).Where(x => x.v.Count > 0).GroupBy(x => string.Join(' ', x.v)))
@@ -80,7 +81,8 @@ internal static class Completion
             if (v.Name == "completion") sb.Append($"complete -c rankfreq -f {when} -a '{string.Join(' ', Shells)}'\n");
             foreach (var o in v.Options.Concat(root.Options.Where(o => o.Recursive)))
             {
-                var names = o.Aliases.Prepend(o.Name).Where(n => n.StartsWith('-') && n != "-?").Distinct().Select(n => n.StartsWith("--") ? $"-l {n[2..]}" : $"-s {n[1..]}");
+                var names = o.Aliases.Prepend(o.Name).Where(n => n.StartsWith('-') && n != "-?").Distinct()
+                    .Select(n => n.StartsWith("--") ? $"-l {n[2..]}" : $"-s {n[1..]}");
                 var values = Values(o.Name);
                 string arg = o.ValueType == typeof(bool) ? "" : values.Count > 0 ? $" -x -a '{string.Join(' ', values)}'" : " -r";
                 sb.Append($"complete -c rankfreq {when} {string.Join(' ', names)}{arg} -d {Quote(o.Description)}\n");

@@ -11,7 +11,11 @@ internal static class FitVerb
 {
     public static Command Build(TextWriter stdout, TextWriter stderr)
     {
-        var input = new Argument<string>("input") { Description = "A count table or spectrum table (.parquet), or a text list: counts, 'value types' or 'count token' lines; - for standard input" };
+        var input = new Argument<string>("input")
+        {
+            Description = "A count table or spectrum table (.parquet), or a text list: counts, 'value types' or "
+                + "'count token' lines; - for standard input",
+        };
         var fo = new FitCliOptions(2500);
         var threads = WholeNumber.Option<int>("--threads", 0, "Worker threads (0 or left out: all cores; results do not depend on it)");
         var json = new Option<bool>("--json") { Description = "Print the fit as JSON on stdout" };

@@ -48,13 +48,13 @@ internal static class Slips
     }
 
     /// <summary>The closest candidate: a unique one the word is a prefix of, else one within a small edit distance
-    /// (a third of the word's length, at least 1, at most 3).</summary>
+    /// (a third of the word's length rounded up, at most 3).</summary>
     internal static string? Nearest(string word, IReadOnlyList<string> candidates)
     {
         var prefixed = candidates.Where(c => c.Length > word.Length && c.StartsWith(word, StringComparison.Ordinal)
             && word.TrimStart('-').Length >= 2).ToList();
         if (prefixed.Count == 1) return prefixed[0];
-        int limit = Math.Clamp(word.TrimStart('-').Length / 3, 1, 3);
+        int limit = Math.Clamp((word.TrimStart('-').Length + 2) / 3, 1, 3);
         return candidates.Select(c => (c, d: Distance(word, c))).Where(x => x.d <= limit)
             .OrderBy(x => x.d).ThenBy(x => x.c, StringComparer.Ordinal).Select(x => x.c).FirstOrDefault();
     }

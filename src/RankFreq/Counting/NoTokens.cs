@@ -12,7 +12,7 @@ internal static class NoTokens
         string where = files.Count == 1 ? files[0].Path : $"{files.Count} files";
         bool jsonl = files.Any(f => f.Format == InputFormat.JsonLines);
         if (stats.Records > 0 && stats.MissingField == stats.Records && jsonl)
-            return $"{where}: {stats.Records:N0} record{S(stats.Records)} lack a text field '{source.TextField}'"
+            return $"{where}: {stats.Records:N0} record{(stats.Records == 1 ? " lacks" : "s lack")} a text field '{source.TextField}'"
                 + (stats.FieldsSeen.Count > 0 ? $" (fields seen: {string.Join(", ", stats.FieldsSeen)}); use --text-field" : "");
         if (stats.Records > 0 && stats.MissingField == stats.Records)
             return $"{where}: all {stats.Records:N0} value{S(stats.Records)} of column '{source.TextColumn}' are empty (null)";

@@ -144,7 +144,8 @@ public static class SpectrumInput
             if (!tokens)
             {
                 if (l.Rest.IndexOfAny([',', ' ', '\t', ';']) >= 0)
-                    throw new FitInputException($"{name}:{l.Number}: expected a count, 'value types' or 'count token', got '{Trunc(l.First + " " + l.Rest)}'");
+                    throw new FitInputException($"{name}:{l.Number}: expected a count, 'value types' or 'count token', "
+                        + $"got '{Trunc(l.First + " " + l.Rest)}'");
                 pairs.Add((value, ParsePositive(l.Rest, name, l.Number, "number of types")));
                 continue;
             }
