@@ -28,14 +28,13 @@ public static class SpectrumInput
         string name = stdin ? "standard input" : path;
         byte[] head = new byte[PeekBytes];
         int n;
-        byte[]? all = null;
+        Stream? input = null;
         if (stdin)
         {
-            using var ms = new MemoryStream();
-            await Console.OpenStandardInput().CopyToAsync(ms, ct);
-            all = ms.ToArray();
-            n = Math.Min(all.Length, PeekBytes);
-            Array.Copy(all, head, n);
+            // the peek is replayed before the rest, so standard input is read once, as a stream
+            input = Console.OpenStandardInput();
+            n = await input.ReadAtLeastAsync(head, PeekBytes, throwOnEndOfStream: false, ct);
+            input = new Sources.PrefixStream(head[..n], input);
         }
         else
         {
@@ -51,13 +50,13 @@ public static class SpectrumInput
         }
         if (Array.IndexOf(head, (byte)0, 0, n) >= 0)
             throw new FitInputException($"{name}: not a text list of counts (binary file)");
-        var lines = stdin ? ReadLines(all!) : File.ReadLines(path);
+        var lines = input is not null ? ReadLines(input) : File.ReadLines(path);
         return ParseLines(lines, name);
     }
 
-    private static IEnumerable<string> ReadLines(byte[] bytes)
+    private static IEnumerable<string> ReadLines(Stream input)
     {
-        using var r = new StreamReader(new MemoryStream(bytes), Encoding.UTF8);
+        using var r = new StreamReader(input, Encoding.UTF8);
         while (r.ReadLine() is { } line) yield return line;
     }
 
