@@ -12,6 +12,7 @@ internal sealed class FitConsoleProgress(TextWriter err, bool quiet) : IProgress
     private DateTime _last = DateTime.UtcNow;
     private string? _stage;
     private TimeSpan _stageStart;
+    private int _stageFrom;
     private bool _drew;
 
     public void Report(FitProgress p)
@@ -19,22 +20,24 @@ internal sealed class FitConsoleProgress(TextWriter err, bool quiet) : IProgress
         if (quiet) return;
         lock (this)
         {
-            if (p.Stage != _stage) { _stage = p.Stage; _stageStart = _total.Elapsed; }
+            // the first report of a stage comes after some replicates: the rate is measured from there on
+            if (p.Stage != _stage) { _stage = p.Stage; _stageStart = _total.Elapsed; _stageFrom = p.Done; }
             var now = DateTime.UtcNow;
             if (now - _last < TimeSpan.FromSeconds(_tty ? 0.25 : 10)) return;
             _last = now;
-            err.Write(_tty ? "\r" + Line(p, _total.Elapsed, _total.Elapsed - _stageStart).PadRight(78) : "");
-            if (!_tty) err.WriteLine(Line(p, _total.Elapsed, _total.Elapsed - _stageStart));
+            string line = Line(p, _total.Elapsed, _total.Elapsed - _stageStart, _stageFrom);
+            if (_tty) err.Write("\r" + line.PadRight(78)); else err.WriteLine(line);
             _drew |= _tty;
         }
     }
 
-    /// <summary>"goodness of fit: 640 of 2,500 replicates, 0:12 elapsed, about 0:35 left".</summary>
-    internal static string Line(FitProgress p, TimeSpan elapsed, TimeSpan inStage)
+    /// <summary>"goodness of fit: 640 of 2,500 replicates, 0:12 elapsed, about 0:35 left": the time left at the rate
+    /// of the replicates done in <paramref name="inStage"/> since <paramref name="from"/> were done.</summary>
+    internal static string Line(FitProgress p, TimeSpan elapsed, TimeSpan inStage, int from)
     {
         string line = $"{p.Stage}: {p.Done:N0} of {p.Total:N0} replicates, {Human.Duration(elapsed)} elapsed";
-        if (p.Done > 0 && p.Total > p.Done)
-            line += $", about {Human.Duration(inStage * ((p.Total - p.Done) / (double)p.Done))} left";
+        if (p.Done > from && p.Total > p.Done && inStage > TimeSpan.Zero)
+            line += $", about {Human.Duration(inStage * ((p.Total - p.Done) / (double)(p.Done - from)))} left";
         return line;
     }
 

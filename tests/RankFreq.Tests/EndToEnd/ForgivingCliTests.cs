@@ -211,10 +211,11 @@ public class ForgivingCliTests
     [Fact]
     public void Fit_progress_shows_time_elapsed_and_left()
     {
-        // 500 of 2,500 done in 10 s: at that rate the other 2,000 take 40 s
-        string line = FitConsoleProgress.Line(new FitProgress("goodness of fit", 500, 2500), TimeSpan.FromSeconds(75), TimeSpan.FromSeconds(10));
-        Assert.Equal("goodness of fit: 500 of 2,500 replicates, 1:15 elapsed, about 0:40 left", line);
-        Assert.DoesNotContain("left", FitConsoleProgress.Line(new FitProgress("uncertainty", 0, 100), TimeSpan.Zero, TimeSpan.Zero));
+        // 64 done at the stage's first report, 564 ten seconds later: 50 a second, so the other 1,936 take 38.7 s
+        var p = new FitProgress("goodness of fit", 564, 2500);
+        string line = FitConsoleProgress.Line(p, TimeSpan.FromSeconds(75), TimeSpan.FromSeconds(10), from: 64);
+        Assert.Equal("goodness of fit: 564 of 2,500 replicates, 1:15 elapsed, about 0:38 left", line);
+        Assert.DoesNotContain("left", FitConsoleProgress.Line(p with { Done = 64 }, TimeSpan.Zero, TimeSpan.Zero, from: 64));
     }
 
     // ---- corpus inputs ---------------------------------------------------------------------------------------
