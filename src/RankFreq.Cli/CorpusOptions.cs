@@ -22,7 +22,7 @@ internal sealed class CorpusOptions
     public readonly Option<bool> Strict = new("--strict") { Description = "Make a malformed JSON Lines record an error instead of skipping it" };
     public readonly Option<int> Threads = WholeNumber.Option<int>("--threads", 0, "Worker threads (0 or left out: all cores)");
     public readonly Option<string?> Memory = new("--memory") { Description = "Memory for count tables before spilling to disk (default: a quarter of RAM), e.g. 2G" };
-    public readonly Option<string?> Shard = new("--shard") { Description = "Count only part K of N of the sorted input files, as K/N" };
+    public readonly Option<string?> Shard = new("--shard") { Description = "Count only part K of N of the sorted input files, as K/N (shards split by file)" };
     public readonly Option<long> RedactBelow = WholeNumber.Option<long>("--redact-below", 0,
         "Write token strings of types with count below K as null (counts kept)");
     public readonly Option<string?> TempDir = new("--temp-dir") { Description = "Folder for spill runs (default: system temporary folder)" };

@@ -14,7 +14,7 @@ internal static class Examples
         [
             ("rankfreq profile corpora-demo -o profile-demo", "everything about a folder, report in profile-demo/report.html"),
             ("rankfreq profile letters.jsonl --text-field body -o out", "JSON Lines, text in the 'body' field"),
-            ("zcat logs.gz | rankfreq profile - -t whitespace -o out", "standard input, split on white space"),
+            ("cat day*.log | rankfreq profile - -t whitespace -o out", "standard input, split on white space"),
         ],
         ["count"] =
         [

@@ -32,7 +32,8 @@ public static class CountJob
     public static async Task<CountJobResult> RunAsync(IReadOnlyList<string> inputs, CountSettings settings, string output,
         long redactBelow = 0, IProgress<CountProgress>? progress = null, CancellationToken ct = default)
     {
-        using var result = Count(inputs, settings, progress, ct);
+        // the table is never its own input (a second run writing into a folder it counts)
+        using var result = Count(inputs, settings with { Source = (settings.Source ?? new()).Skipping(output) }, progress, ct);
         var meta = CountTableMetadata.From(result.Summary, redactBelow);
         await CountTableFile.WriteAsync(output, result.Rows, result.HasTokenIds, meta, ct);
         return new CountJobResult(result.Summary, output, Warnings(result.Summary));

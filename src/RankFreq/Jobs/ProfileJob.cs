@@ -15,8 +15,7 @@ public static class ProfileJob
         IProgress<FitProgress>? fitProgress = null, CancellationToken ct = default)
     {
         // the output folder is never an input, so a second run over a folder holding it does not read the first's tables
-        var source = s.Count.Source ?? new();
-        var count = s.Count with { Source = source with { SkipFolders = [.. source.SkipFolders ?? [], s.OutputDirectory] } };
+        var count = s.Count with { Source = (s.Count.Source ?? new()).Skipping(s.OutputDirectory) };
         using var counted = CountJob.Count(inputs, count, countProgress, ct);
         var warnings = CountJob.Warnings(counted.Summary);
         var fit = TailFitter.Fit(counted.Spectrum, s.Fit, fitProgress, ct);

@@ -65,16 +65,16 @@ public static class InputPlanner
 
     /// <summary>
     /// The files under <paramref name="folder"/> that the include and exclude globs select, leaving out the
-    /// <see cref="SourceOptions.SkipFolders"/>. A glob without a '/' matches file names at any depth, as people
+    /// <see cref="SourceOptions.SkipPaths"/>. A glob without a '/' matches file names at any depth, as people
     /// expect of <c>*.txt</c>; one with a '/' is relative to the folder. Throws when nothing is selected, saying why.
     /// </summary>
     private static List<string> FolderFiles(string folder, SourceOptions options)
     {
         static IEnumerable<string> AnyDepth(IEnumerable<string> globs) =>
             globs.Select(g => g.Contains('/') ? g.TrimStart('/') : "**/" + g);
-        var skip = (options.SkipFolders ?? []).Select(d => System.IO.Path.TrimEndingDirectorySeparator(System.IO.Path.GetFullPath(d))
-            + System.IO.Path.DirectorySeparatorChar).ToList();
-        bool Kept(string f) => !skip.Any(d => f.StartsWith(d, StringComparison.Ordinal));
+        var skip = (options.SkipPaths ?? []).Select(d => System.IO.Path.TrimEndingDirectorySeparator(System.IO.Path.GetFullPath(d)))
+            .ToList();
+        bool Kept(string f) => !skip.Any(d => f == d || f.StartsWith(d + System.IO.Path.DirectorySeparatorChar, StringComparison.Ordinal));
         var m = new Matcher(StringComparison.Ordinal);
         if (options.Include is { Count: > 0 } inc) m.AddIncludePatterns(AnyDepth(inc)); else m.AddInclude("**/*");
         if (options.Exclude is { Count: > 0 } exc) m.AddExcludePatterns(AnyDepth(exc));

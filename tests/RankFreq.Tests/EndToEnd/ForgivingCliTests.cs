@@ -318,6 +318,21 @@ public class ForgivingCliTests
         Assert.Single(Json(second.Out).GetProperty("inputs").EnumerateArray());
     }
 
+    [Fact]
+    public void A_count_table_written_into_the_folder_it_counts_is_not_counted_the_next_time()
+    {
+        using var d = new TempDir();
+        Directory.CreateDirectory(d["corpus"]);
+        File.WriteAllText(d["corpus/a.txt"], "one two two");
+        string table = Path.Combine(d["corpus"], "t.parquet");
+        var first = Cli.Run("count", d["corpus"], "-o", table, "--json");
+        Assert.True(first.Code == 0, first.Err);
+        var second = Cli.Run("count", d["corpus"], "-o", table, "--json");
+        Assert.True(second.Code == 0, second.Err);
+        Assert.Equal(1, Json(second.Out).GetProperty("files").GetInt32());
+        Assert.Equal(3, Json(second.Out).GetProperty("tokens").GetInt64());
+    }
+
     // ---- standard input (a separate process: the in-process runner cannot feed it) -----------------------------
 
     [Fact]
