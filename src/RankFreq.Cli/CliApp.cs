@@ -28,7 +28,8 @@ public static class CliApp
         }
         if (args.Length == 0)
         {
-            stderr.WriteLine($"rankfreq: no command given; the commands are {string.Join(", ", root.Subcommands.Select(c => c.Name))}");
+            stderr.WriteLine("rankfreq: no command given; the commands are "
+                + string.Join(", ", root.Subcommands.Select(c => c.Name)));
             stderr.WriteLine(tryHelp);
             return Usage;
         }
@@ -76,8 +77,8 @@ public static class CliApp
     /// <summary>
     /// Maps an exception to a message and exit code: bad input or environment (<see cref="RankFreqException"/>) 1,
     /// usage 2 (the CLI's <see cref="UsageException"/> or the library's <see cref="SettingsException"/>: a setting no
-    /// input could make valid), interruption 130; anything else is a bug: 70 with a one-line "internal error", the detail only
-    /// under <c>--verbose</c>.
+    /// input could make valid), interruption 130; anything else is a bug: 70 with a one-line "internal error", the
+    /// detail only under <c>--verbose</c>.
     /// </summary>
     internal static int Fail(TextWriter stderr, Exception e)
     {

@@ -72,15 +72,17 @@ public static class InputPlanner
     {
         static IEnumerable<string> AnyDepth(IEnumerable<string> globs) =>
             globs.Select(g => g.Contains('/') ? g.TrimStart('/') : "**/" + g);
-        var skip = (options.SkipPaths ?? []).Select(d => System.IO.Path.TrimEndingDirectorySeparator(System.IO.Path.GetFullPath(d)))
-            .ToList();
-        bool Kept(string f) => !skip.Any(d => f == d || f.StartsWith(d + System.IO.Path.DirectorySeparatorChar, StringComparison.Ordinal));
+        var skip = (options.SkipPaths ?? [])
+            .Select(d => System.IO.Path.TrimEndingDirectorySeparator(System.IO.Path.GetFullPath(d))).ToList();
+        bool Kept(string f) =>
+            !skip.Any(d => f == d || f.StartsWith(d + System.IO.Path.DirectorySeparatorChar, StringComparison.Ordinal));
         var m = new Matcher(StringComparison.Ordinal);
         if (options.Include is { Count: > 0 } inc) m.AddIncludePatterns(AnyDepth(inc)); else m.AddInclude("**/*");
         if (options.Exclude is { Count: > 0 } exc) m.AddExcludePatterns(AnyDepth(exc));
         var files = m.GetResultsInFullPath(folder).Where(Kept).ToList();
         if (files.Count > 0) return files;
-        int all = Directory.EnumerateFiles(folder, "*", SearchOption.AllDirectories).Count(f => Kept(System.IO.Path.GetFullPath(f)));
+        int all = Directory.EnumerateFiles(folder, "*", SearchOption.AllDirectories)
+            .Count(f => Kept(System.IO.Path.GetFullPath(f)));
         string globs = string.Join(" ", (options.Include ?? []).Select(g => $"--include '{g}'")
             .Concat((options.Exclude ?? []).Select(g => $"--exclude '{g}'")));
         throw new SourceException(all == 0
