@@ -40,15 +40,15 @@ internal static class Completion
         return shell switch
         {
             "fish" => Fish(root, verbs),
-            "zsh" => "#compdef rankfreq\nautoload -U +X bashcompinit && bashcompinit\n" + Bash(root, verbs),
-            _ => Bash(root, verbs),
+            "zsh" => "# rankfreq completion; load with: source <(rankfreq completion zsh), after compinit\n"
+                + "autoload -U +X bashcompinit && bashcompinit\n" + Bash(root, verbs),
+            _ => "# rankfreq completion; load with: source <(rankfreq completion bash)\n" + Bash(root, verbs),
         };
     }
 
     private static string Bash(RootCommand root, List<Command> verbs)
     {
         var sb = new StringBuilder();
-        sb.Append("# rankfreq completion; load with: source <(rankfreq completion bash)\n");
         sb.Append("_rankfreq() {\n  local cur=${COMP_WORDS[COMP_CWORD]} prev=${COMP_WORDS[COMP_CWORD-1]} opts=\n");
         string words = string.Join(' ', verbs.Select(v => v.Name)) + " --help --version";
         sb.Append($"  if [[ $COMP_CWORD -eq 1 ]]; then\n    COMPREPLY=($(compgen -W \"{words}\" -- \"$cur\"))\n    return\n  fi\n");
