@@ -33,7 +33,7 @@ public static class CountEngine
         var spill = new SpillSet(settings.TempDirectory);
         long budget = settings.EffectiveMemory;
         var workers = new List<Worker>();
-        long done = 0;
+        long done = 0, stdinBytes = 0;
         using var timer = progress is null ? null : new Timer(_ =>
             progress.Report(new CountProgress(Interlocked.Read(ref done), totalBytes, workers.ToArray().Sum(w => w.Tokens), sw.Elapsed)), null, 500, 500);
         bool handedOver = false;
@@ -53,7 +53,11 @@ public static class CountEngine
                 (unit, _, w) =>
                 {
                     w.Begin(unit.Index);
-                    InputReader.Read(unit, source, w, w.Stats, n => Interlocked.Add(ref done, n), ct);
+                    InputReader.Read(unit, source, w, w.Stats, n =>
+                    {
+                        Interlocked.Add(ref done, n);
+                        if (unit.File.IsStdin) Interlocked.Add(ref stdinBytes, n);
+                    }, ct);
                     unitTokens[unit.Index] = w.End();
                     return w;
                 },
@@ -76,9 +80,7 @@ public static class CountEngine
             var stats = new SourceStats();
             foreach (var w in workers) stats.Add(w.Stats);
             long tokens = unitTokens.Sum();
-            if (tokens == 0)
-                throw new CountingException($"no tokens found in {string.Join(", ", files.Select(f => f.Path))}"
-                    + (skipped.Count > 0 ? $" ({skipped.Count} file(s) skipped as binary)" : ""));
+            if (tokens == 0) throw new CountingException(NoTokens.Message(files, skipped, stats, source));
             var unitStart = new long[units.Count];
             for (int i = 1; i < units.Count; i++) unitStart[i] = unitStart[i - 1] + unitTokens[i - 1];
             var checkpoints = GrowthCurve.Checkpoints(tokens);
@@ -90,7 +92,7 @@ public static class CountEngine
                 (rows, spectrum) = RankIds(tokenizer, workers, growth);
             else
                 (rows, spectrum) = RankBuilder.Build(workers.Select(w => w.Table).ToList(), spill, budget, growth);
-            var inputsInfo = files.Select(f => new InputInfo(f.Path, f.Length)).ToList();
+            var inputsInfo = files.Select(f => new InputInfo(f.Path, f.IsStdin ? Interlocked.Read(ref stdinBytes) : f.Length)).ToList();
             var summary = new CountSummary(tokenizer.Spec, tokenizer.Normalization, tokenizer.CaseRule, tokens, spectrum.TypeCount,
                 stats.StoredBytes, stats.TextBytes, stats.ReplacedBytes, stats.Records, stats.MalformedRecords, stats.MissingField,
                 skipped, inputsInfo, threads, spill.Runs, sw.Elapsed.TotalSeconds);

@@ -19,4 +19,11 @@ public sealed record SourceOptions(
 {
     /// <summary>Compressed files at least this large (stored size) are decompressed on a second thread while counting.</summary>
     public long ReadAheadAboveBytes { get; init; } = 4L << 20;
+
+    /// <summary>Files and folders never taken from a folder input: a job's own outputs, so that a second run over a
+    /// folder holding them does not read the first run's tables.</summary>
+    public IReadOnlyList<string>? SkipPaths { get; init; }
+
+    /// <summary>These options with <paramref name="path"/> added to <see cref="SkipPaths"/>.</summary>
+    public SourceOptions Skipping(string path) => this with { SkipPaths = [.. SkipPaths ?? [], path] };
 }
