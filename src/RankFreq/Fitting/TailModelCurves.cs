@@ -39,10 +39,10 @@ public static class TailModelCurves
     /// <summary>
     /// Expected number of types seen exactly x times under the fitted tail, n_tail · x^−α / ζ(α, xmin) (the tail size
     /// times the model's probability of x), for x from xmin up to <paramref name="top"/>; stops once the expectation
-    /// falls below <paramref name="floor"/> types.
+    /// falls below <paramref name="floor"/> types (0: never).
     /// </summary>
     /// <remarks>Summed over every integer x ≥ xmin the expectations add up to n_tail (tested to 1e-9 relative).</remarks>
-    public static (double[] X, double[] Types) Spectrum(PowerLawFit fit, long top, double floor = 0.1)
+    public static (double[] X, double[] Types) Spectrum(PowerLawFit fit, long top, double floor = 0)
     {
         var xs = new List<double>();
         var types = new List<double>();

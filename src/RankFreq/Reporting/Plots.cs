@@ -47,15 +47,16 @@ public static class Plots
         p.DataBackground.Color = Colors.White;
         p.Grid.MajorLineColor = Grid;
         p.Axes.Color(Color.FromHex("#3B3B3B"));
-        p.Title(title, 17);
-        p.XLabel(x, 15);
-        p.YLabel(y, 15);
+        p.Title(title, 19);
+        p.XLabel(x, 17);
+        p.YLabel(y, 17);
         // room right of the data area for half of the last x tick label, so no label runs into the frame edge
         p.Axes.Right.MinimumSize = 28;
         p.Axes.Top.MinimumSize = 36;
-        p.Axes.Bottom.TickLabelStyle.FontSize = 14;
-        p.Axes.Left.TickLabelStyle.FontSize = 14;
-        p.Legend.FontSize = 13;
+        p.Axes.Left.Label.OffsetX = 5; // keeps the rotated y-axis title's ascenders off the image edge
+        p.Axes.Bottom.TickLabelStyle.FontSize = 15;
+        p.Axes.Left.TickLabelStyle.FontSize = 15;
+        p.Legend.FontSize = 14;
         return p;
     }
 
@@ -127,7 +128,7 @@ public static class Plots
             var fy = fq.Select(Math.Log10).ToList();
             var line = p.Add.ScatterLine(fx.ToArray(), fy.ToArray(), Ember);
             line.LineWidth = 2.5f;
-            line.LegendText = $"power-law tail, α = {pl.Alpha:F3}, xmin = {pl.Xmin}";
+            line.LegendText = $"power-law tail, α = {pl.Alpha:F3}, xmin = {pl.Xmin:N0}";
         }
         p.ShowLegend(Alignment.UpperRight);
         return Render(p, "rank-frequency", "Rank–frequency (log–log) with the fitted tail");
@@ -160,7 +161,7 @@ public static class Plots
             line.LegendText = $"fitted power law, α = {pl.Alpha:F3}";
             var v = p.Add.VerticalLine(Math.Log10(pl.Xmin), 1.5f, Moss);
             v.LinePattern = LinePattern.Dashed;
-            v.LegendText = $"xmin = {pl.Xmin}";
+            v.LegendText = $"xmin = {pl.Xmin:N0}";
         }
         p.ShowLegend(Alignment.LowerLeft);
         return Render(p, "ccdf", "Complementary CDF of frequencies, fit and xmin");
@@ -180,16 +181,21 @@ public static class Plots
         if (fit.PowerLaw.Status == FitStatus.Ok)
         {
             var pl = fit.PowerLaw;
+            var (bx, by, _) = SpectrumBins.LogBinned(s, pl.Xmin);
+            var bins = p.Add.ScatterPoints(bx.Select(Math.Log10).ToArray(), by.Select(Math.Log10).ToArray(), Moss);
+            bins.MarkerShape = MarkerShape.FilledDiamond;
+            bins.MarkerSize = 9;
+            bins.LegendText = "observed, averaged over log bins (f ≥ xmin)";
             var (x, e) = TailModelCurves.Spectrum(pl, s.Values[^1]);
             if (x.Length > 1)
             {
                 var line = p.Add.ScatterLine(x.Select(Math.Log10).ToArray(), e.Select(Math.Log10).ToArray(), Ember);
                 line.LineWidth = 2.5f;
-                line.LegendText = $"expected by the fit (f ≥ xmin = {pl.Xmin:N0})";
+                line.LegendText = $"expected by the fit, f ≥ xmin = {pl.Xmin:N0}";
             }
         }
         p.ShowLegend(Alignment.UpperRight);
-        return Render(p, "spectrum", "Frequency spectrum with the fitted power law's expected counts");
+        return Render(p, "spectrum", "Frequency spectrum with the fitted power law's expected counts. Above xmin most frequencies are held by one type or none, so read the fit against the bin averages (diamonds)");
     }
 
     /// <summary>

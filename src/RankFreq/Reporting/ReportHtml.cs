@@ -99,18 +99,19 @@ public static class ReportHtml
     {
         var ok = alts.Where(a => a.Status == FitStatus.Ok).ToList();
         if (ok.Count == 0) return "";
-        static string Ps(IEnumerable<AlternativeComparison> xs) =>
-            string.Join("; ", xs.Select(a => $"{Family(a.Name)}, p = {F(a.P)}"));
         var parts = new List<string>();
-        var plWins = ok.Where(a => a.Favours == "power_law").ToList();
-        var altWins = ok.Where(a => a.Favours == a.Name).ToList();
-        var open = ok.Except(plWins).Except(altWins).ToList();
-        if (altWins.Count > 0) parts.Add($"the likelihood-ratio test favours {Ps(altWins)} over the power law");
-        if (plWins.Count > 0) parts.Add($"the power law is favoured over {Ps(plWins)}");
-        if (open.Count > 0) parts.Add($"against {string.Join(", ", open.Select(a => Family(a.Name)))} the data cannot decide");
-        string text = string.Join("; ", parts);
-        return "Compared with other families: " + text + ".";
+        foreach (var a in ok.Where(a => a.Favours == a.Name))
+            parts.Add($"{Family(a.Name)} over the power law (p = {F(a.P)})");
+        foreach (var a in ok.Where(a => a.Favours == "power_law"))
+            parts.Add($"the power law over {Family(a.Name)} (p = {F(a.P)})");
+        var open = ok.Where(a => a.Favours != a.Name && a.Favours != "power_law").Select(a => Family(a.Name)).ToList();
+        string text = parts.Count > 0 ? "The likelihood-ratio comparisons favour " + string.Join(", and ", parts) : "";
+        if (open.Count > 0)
+            text += (text.Length > 0 ? "; against " : "Against ") + Words(open) + $" they give no verdict at the {Verdicts.Level} level";
+        return text + ".";
     }
+
+    private static string Words(List<string> xs) => xs.Count == 1 ? xs[0] : string.Join(", ", xs[..^1]) + " and " + xs[^1];
 
     private static string Family(string name) => name switch
     {
@@ -152,7 +153,7 @@ public static class ReportHtml
         {
             sb.Append("<tr>");
             foreach (var f in shown)
-                sb.Append(f.Kind == FieldKind.Real ? $"<td class=\"n\">{H(f.Display(item))}</td>" : $"<td>{H(f.Display(item))}</td>");
+                sb.Append($"<td{(f.Kind == FieldKind.Real ? " class=\"n\"" : "")} data-label=\"{H(f.Label)}\">{H(f.Display(item))}</td>");
             sb.Append("</tr>");
         }
         sb.Append("</tbody></table>");
@@ -174,7 +175,7 @@ public static class ReportHtml
         .card{background:#fff;border:1px solid var(--rule);border-left:5px solid var(--ember);padding:12px 14px;border-radius:3px}
         .card .label{font:600 13px/1.2 "DejaVu Sans",Verdana,sans-serif;letter-spacing:.02em;color:#5F5F5F}
         .card .value{font-size:28px;color:var(--ink);margin:4px 0}.card .note{font-size:13px;color:#555}
-        .wide{overflow-x:auto}
+        .wide{overflow-x:auto}.wide td{overflow-wrap:normal}
         table{border-collapse:collapse;width:100%;background:#fff;font:14px/1.4 "DejaVu Sans",Verdana,sans-serif}
         th,td{padding:7px 10px;border-bottom:1px solid var(--rule);text-align:left;vertical-align:top;overflow-wrap:anywhere}tbody th{font-weight:500;color:#444;width:45%}
         thead th{background:#F1EBDD;color:var(--ink);overflow-wrap:normal}td.n{text-align:right;font-variant-numeric:tabular-nums;white-space:nowrap}
@@ -184,6 +185,10 @@ public static class ReportHtml
         .caution{background:#FFF4E0;border:1px solid #EBCB8B;padding:4px 22px 10px;margin-top:34px}.caution h2{border:none}
         footer{margin-top:36px;font-size:13px;color:#5E5E5E}code{background:#F1EBDD;padding:0 4px;border-radius:3px}
         @media (max-width:600px){header{padding:20px 16px 16px}header h1{font-size:24px}main{padding:16px 14px 36px}
+        .cards{grid-template-columns:1fr 1fr;gap:10px}.card{padding:10px 10px 10px 11px}
+        .wide thead{display:none}.wide table,.wide tbody,.wide tr{display:block}.wide tr{border-bottom:2px solid var(--rule)}
+        .wide td{display:flex;gap:10px;text-align:left;border:none;padding:4px 8px;overflow-wrap:anywhere}
+        .wide td::before{content:attr(data-label);flex:0 0 42%;font-weight:600;color:#444}
         .caution{padding:2px 14px 8px}th,td{padding:6px 6px}.card .value{font-size:24px}}
         """;
 }
