@@ -88,8 +88,27 @@ public static class Plots
 
     private const int Width = 760, Height = 480;
 
-    private static RenderedPlot Render(Plot p, string name, string title) =>
-        new(name, title, WithViewBox(p.GetSvgXml(Width, Height)), Font is null ? null : p.GetImageBytes(Width, Height, ImageFormat.Png));
+    private static RenderedPlot Render(Plot p, string name, string title, bool logAxes = true)
+    {
+        if (logAxes) TwoDecadesAtLeast(p);
+        return new(name, title, WithViewBox(p.GetSvgXml(Width, Height)), Font is null ? null : p.GetImageBytes(Width, Height, ImageFormat.Png));
+    }
+
+    /// <summary>Widens a log axis that would show fewer than two decade labels (tiny inputs), so every axis has a scale.</summary>
+    private static void TwoDecadesAtLeast(Plot p)
+    {
+        p.Axes.AutoScale();
+        var l = p.Axes.GetLimits();
+        static (double, double) Widen(double lo, double hi)
+        {
+            if (Math.Floor(hi) - Math.Ceiling(lo) >= 1) return (lo, hi);
+            double d = Math.Floor(lo);
+            return (Math.Min(lo, d - 0.05), Math.Max(hi, d + 1.05));
+        }
+        var (x0, x1) = Widen(l.Left, l.Right);
+        var (y0, y1) = Widen(l.Bottom, l.Top);
+        p.Axes.SetLimits(x0, x1, y0, y1);
+    }
 
     /// <summary>Gives the root element a viewBox, so the drawing scales to any box instead of being clipped.</summary>
     private static string WithViewBox(string svg)
@@ -195,7 +214,9 @@ public static class Plots
             }
         }
         p.ShowLegend(Alignment.UpperRight);
-        return Render(p, "spectrum", "Frequency spectrum with the fitted power law's expected counts. Above xmin most frequencies are held by one type or none, so read the fit against the bin averages (diamonds)");
+        return Render(p, "spectrum", fit.PowerLaw.Status != FitStatus.Ok ? "Frequency spectrum (no tail fit to compare)"
+            : "Frequency spectrum with the fitted power law's expected counts. Above xmin most frequencies are held by one "
+                + "type or none, so read the fit against the bin averages (diamonds)");
     }
 
     /// <summary>
@@ -234,7 +255,8 @@ public static class Plots
         }
         p.Axes.Margins(bottom: 0);
         p.ShowLegend(Alignment.UpperRight);
-        return Render(p, "alpha-bootstrap", "Bootstrap distribution of α with the 95% interval");
+        return Render(p, "alpha-bootstrap", logAxes: false, title:
+            "Bootstrap distribution of α with the 95% interval; xmin is chosen anew in each replicate, so a second peak means the choice of xmin is unstable");
     }
 
     /// <summary>Vocabulary growth: observed, expected under random order, Heaps fit.</summary>

@@ -189,6 +189,6 @@ public static class ReportHtml
         .wide thead{display:none}.wide table,.wide tbody,.wide tr{display:block}.wide tr{border-bottom:2px solid var(--rule)}
         .wide td{display:flex;gap:10px;text-align:left;border:none;padding:4px 8px;overflow-wrap:anywhere}
         .wide td::before{content:attr(data-label);flex:0 0 42%;font-weight:600;color:#444}
-        .caution{padding:2px 14px 8px}th,td{padding:6px 6px}.card .value{font-size:24px}}
+        .caution{padding:2px 14px 8px}.caution ul{padding-left:20px}th,td{padding:6px 6px}.card .value{font-size:24px}}
         """;
 }
