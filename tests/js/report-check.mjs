@@ -117,6 +117,9 @@ function inspect() {
     let fg = parse(isSvg ? cs.fill : cs.color);
     if (!fg) continue;
     fg = { ...fg, a: fg.a * opacity(el) };
+    // upper-casing turns Greek α and β into Α and Β, which read as Latin A and B
+    if (/[\u0370-\u03FF]/.test(el.textContent) && cs.textTransform !== 'none')
+      failures.push(`text-transform ${cs.textTransform} on Greek text "${el.textContent.trim().slice(0, 40)}"`);
     const bg = isSvg ? svgBackground(el) : htmlBackground(el);
     const c = ratio(over(fg, bg), bg);
     checked++;
