@@ -101,15 +101,17 @@ public static class ReportHtml
         if (ok.Count == 0) return "";
         var parts = new List<string>();
         foreach (var a in ok.Where(a => a.Favours == a.Name))
-            parts.Add($"{Family(a.Name)} over the power law (p = {F(a.P)})");
+            parts.Add($"{Family(a.Name)} over the power law ({P(a.P)})");
         foreach (var a in ok.Where(a => a.Favours == "power_law"))
-            parts.Add($"the power law over {Family(a.Name)} (p = {F(a.P)})");
+            parts.Add($"the power law over {Family(a.Name)} ({P(a.P)})");
         var open = ok.Where(a => a.Favours != a.Name && a.Favours != "power_law").Select(a => Family(a.Name)).ToList();
-        string text = parts.Count > 0 ? "The likelihood-ratio comparisons favour " + string.Join(", and ", parts) : "";
+        string text = parts.Count > 0 ? "The likelihood-ratio comparisons favour " + Words(parts) : "";
         if (open.Count > 0)
             text += (text.Length > 0 ? "; against " : "Against ") + Words(open) + $" they give no verdict at the {Verdicts.Level} level";
         return text + ".";
     }
+
+    private static string P(double p) => p < 0.001 ? "p < 0.001" : $"p = {F(p)}";
 
     private static string Words(List<string> xs) => xs.Count == 1 ? xs[0] : string.Join(", ", xs[..^1]) + " and " + xs[^1];
 
