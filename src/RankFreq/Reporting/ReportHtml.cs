@@ -31,7 +31,9 @@ public static class ReportHtml
         Card(sb, "lower cut-off xmin", fitted ? N(pl.Xmin) : "–", fitted ? $"{N(pl.NTail)} types in the tail ({100.0 * pl.NTail / Math.Max(1, fit.NTypes):F1}%)" : "");
         Card(sb, "goodness of fit p", F(fit.GofP), GofNote(fit));
         Card(sb, "Zipf rank exponent s", F(fit.ZipfS), $"± {F(fit.ZipfSSe)}; log–log line slope {F(fit.LsqSlope)} (biased)");
-        Card(sb, "Heaps β", F(g.HeapsBeta), double.IsFinite(g.HeapsBeta) ? $"V ≈ {F(g.HeapsK, "G3")} · N<sup>β</sup>, fitted from N = {N(g.HeapsFrom)} on" : "no fit", noteIsHtml: true);
+        Card(sb, "Heaps β", F(g.HeapsBeta),
+            double.IsFinite(g.HeapsBeta) ? $"V ≈ {F(g.HeapsK, "G3")} · N<sup>β</sup>, fitted from N = {N(g.HeapsFrom)} on" : "no fit",
+            noteIsHtml: true);
         Card(sb, "unseen mass N₁/N", F(lex.GoodTuringUnseen, "F4"), $"{N(lex.Hapax)} hapax, {N(lex.Dis)} dis legomena");
         sb.Append("</section>");
 
@@ -42,7 +44,8 @@ public static class ReportHtml
             sb.Append($"α = {F(pl.Alpha)} (standard error {F(pl.AlphaSe)}; the 2009 closed-form approximation gives {F(pl.AlphaApprox)}). ");
             sb.Append($"In rank terms that is Zipf's s = 1/(α − 1) = {F(fit.ZipfS)}. ");
             if (fit.GofReps > 0 && double.IsFinite(fit.GofP))
-                sb.Append($"The goodness-of-fit test gives p = {F(fit.GofP)} from {N(fit.GofReps)} synthetic sets: <strong>{H(Verdicts.GoodnessOfFit(fit.GofP))}</strong> at the {Verdicts.Level} level. ");
+                sb.Append($"The goodness-of-fit test gives p = {F(fit.GofP)} from {N(fit.GofReps)} synthetic sets: "
+                    + $"<strong>{H(Verdicts.GoodnessOfFit(fit.GofP))}</strong> at the {Verdicts.Level} level. ");
             else sb.Append($"The goodness-of-fit test was {H(GofNote(fit))}. ");
             sb.Append(H(ComparisonSentence(fit.Alternatives)));
             if (fit.GofReps > 0 && !Verdicts.RuledOut(fit.GofP) && fit.Alternatives.Any(a => a.Favours == a.Name))
@@ -57,7 +60,9 @@ public static class ReportHtml
         {
             sb.Append("<section><h2>Against other heavy-tailed families</h2><div class=\"wide\">");
             Table(sb, TailFitFields.Alternative, fit.Alternatives);
-            sb.Append($"</div><p class=\"note\">A positive ratio favours the power law. p is Vuong's two-sided test for the non-nested families and the boundary-corrected likelihood-ratio test for the power law with cut-off, which contains the power law. Above p = {Verdicts.Level} the data cannot tell the two apart.</p></section>");
+            sb.Append("</div><p class=\"note\">A positive ratio favours the power law. p is Vuong's two-sided test for the "
+                + "non-nested families and the boundary-corrected likelihood-ratio test for the power law with cut-off, which "
+                + $"contains the power law. Above p = {Verdicts.Level} the data cannot tell the two apart.</p></section>");
         }
 
         sb.Append("<section><h2>Vocabulary</h2><table><tbody>");
@@ -143,7 +148,8 @@ public static class ReportHtml
     }
 
     private static void Card(StringBuilder sb, string label, string value, string note, bool noteIsHtml = false) =>
-        sb.Append($"<div class=\"card\"><div class=\"label\">{H(label)}</div><div class=\"value\">{H(value)}</div><div class=\"note\">{(noteIsHtml ? note : H(note))}</div></div>");
+        sb.Append($"<div class=\"card\"><div class=\"label\">{H(label)}</div><div class=\"value\">{H(value)}</div>"
+            + $"<div class=\"note\">{(noteIsHtml ? note : H(note))}</div></div>");
 
     private static void Table<T>(StringBuilder sb, IReadOnlyList<ResultField<T>> fields, IReadOnlyList<T> items)
     {
@@ -179,7 +185,8 @@ public static class ReportHtml
         .card .value{font-size:28px;color:var(--ink);margin:4px 0}.card .note{font-size:13px;color:#555}
         .wide{overflow-x:auto}.wide td{overflow-wrap:normal}
         table{border-collapse:collapse;width:100%;background:#fff;font:14px/1.4 "DejaVu Sans",Verdana,sans-serif}
-        th,td{padding:7px 10px;border-bottom:1px solid var(--rule);text-align:left;vertical-align:top;overflow-wrap:anywhere}tbody th{font-weight:500;color:#444;width:45%}
+        th,td{padding:7px 10px;border-bottom:1px solid var(--rule);text-align:left;vertical-align:top;overflow-wrap:anywhere}
+        tbody th{font-weight:500;color:#444;width:45%}
         thead th{background:#F1EBDD;color:var(--ink);overflow-wrap:normal}td.n{text-align:right;font-variant-numeric:tabular-nums;white-space:nowrap}
         .note{font-size:14px;color:#555}.plots{display:grid;grid-template-columns:repeat(auto-fill,minmax(min(100%,480px),1fr));gap:18px;margin-top:22px}
         figure{margin:0;background:#fff;border:1px solid var(--rule);padding:8px;min-width:0}figure svg{width:100%;height:auto;display:block}

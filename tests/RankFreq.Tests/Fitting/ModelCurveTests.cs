@@ -62,7 +62,12 @@ public class ModelCurveTests
         Assert.Equal(fit.CiReps, a.Length);
         Assert.Equal(a.Order().ToArray(), a);
         // type-7 percentiles (Hyndman & Fan 1996, the default of R and NumPy: common practice) of the kept values
-        static double Q(double[] v, double q) { double h = (v.Length - 1) * q; int lo = (int)h; return v[lo] + (h - lo) * (v[Math.Min(lo + 1, v.Length - 1)] - v[lo]); }
+        static double Q(double[] v, double q)
+        {
+            double h = (v.Length - 1) * q;
+            int lo = (int)h;
+            return v[lo] + (h - lo) * (v[Math.Min(lo + 1, v.Length - 1)] - v[lo]);
+        }
         Assert.Equal(fit.AlphaLo, Q(a, 0.025), 12);
         Assert.Equal(fit.AlphaHi, Q(a, 0.975), 12);
         double mean = a.Average();
