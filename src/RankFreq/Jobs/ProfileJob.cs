@@ -35,9 +35,9 @@ public static class ProfileJob
 
         var rendered = new[]
         {
-            Plots.RankFrequency(counted.Spectrum, fit), Plots.Ccdf(counted.Spectrum, fit), Plots.Spectrum(counted.Spectrum),
-            Plots.Growth(growth),
-        };
+            Plots.RankFrequency(counted.Spectrum, fit), Plots.Ccdf(counted.Spectrum, fit), Plots.Spectrum(counted.Spectrum, fit),
+            Plots.AlphaBootstrap(fit), Plots.Growth(growth),
+        }.OfType<RenderedPlot>().ToArray();
         var plots = new List<PlotFile>();
         foreach (var r in rendered)
         {
