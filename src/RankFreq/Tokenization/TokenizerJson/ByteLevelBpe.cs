@@ -36,12 +36,15 @@ internal sealed class ByteLevelBpe
         _merges = new Dictionary<long, long>(f.Merges.Count);
         for (int r = 0; r < f.Merges.Count; r++)
         {
-            var (a, b) = f.Merges[r];
-            long key = ((long)f.Vocab[a] << 32) | (uint)f.Vocab[b];
-            _merges.TryAdd(key, ((long)r << 32) | (uint)f.Vocab[a + b]); // the first listed rank wins, as in the reference
+            var (a, b, ab) = f.Merges[r];
+            _merges[Key(a, b)] = ((long)r << 32) | (uint)ab; // a repeated pair: the last wins, as in the reference
         }
         if (ignoreMerges) _whole = f.Vocab;
     }
+
+    // (a, b) times an odd constant: still one key per pair, and long.GetHashCode (low ^ high word) no longer collides
+    // for every pair with the same a ^ b, which made the table's chains long
+    private static long Key(int a, int b) => (long)((((ulong)(uint)a << 32) | (uint)b) * 0x9E3779B97F4A7C15UL);
 
     /// <summary>Appends the ids of one pre-tokenized chunk, given as UTF-8 bytes.</summary>
     public void Encode(ReadOnlySpan<byte> bytes, List<int> ids)
@@ -66,7 +69,7 @@ internal sealed class ByteLevelBpe
             if (pos < 0) return;
             int r = next[pos];
             if (r < 0) return;
-            if (_merges.TryGetValue(((long)sym[pos] << 32) | (uint)sym[r], out long m))
+            if (_merges.TryGetValue(Key(sym[pos], sym[r]), out long m))
                 queue.Enqueue((pos, sym[pos], sym[r]), (m & ~0xFFFFFFFFL) | (uint)pos);
         }
         for (int i = 0; i < n - 1; i++) Offer(i);
@@ -75,7 +78,7 @@ internal sealed class ByteLevelBpe
             int pos = top.Pos, r = next[pos];
             // stale entries: either symbol changed since the pair was offered
             if (sym[pos] != top.Left || r < 0 || sym[r] != top.Right) continue;
-            sym[pos] = (int)_merges[((long)top.Left << 32) | (uint)top.Right];
+            sym[pos] = (int)_merges[Key(top.Left, top.Right)];
             int rr = next[r];
             next[pos] = rr;
             if (rr >= 0) prev[rr] = pos;

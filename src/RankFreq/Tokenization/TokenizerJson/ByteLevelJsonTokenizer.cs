@@ -21,15 +21,17 @@ public sealed class ByteLevelJsonTokenizer : TokenizerJsonTokenizer
     private readonly SplitRule[] _rules;
     private readonly bool _nfc;
     private readonly AddedTokenEntry[] _added; // not special; matched leftmost-longest before normalisation
+    private readonly System.Buffers.SearchValues<char> _addedFirst;
 
     internal ByteLevelJsonTokenizer(TokenizerJsonFile f, ByteLevelBpe bpe, SplitRule[] rules, bool nfc, bool cutSafe)
-        : base(f.Path, nfc ? "NFC" : "none", cutSafe, DisplayForms(f, byteLevel: true),
+        : base(f.Path, nfc ? "NFC" : "none", cutSafe, f, byteLevel: true,
             $"byte-level BPE (own merge loop; split: {string.Join(", ", rules.Select(r => r.Describe))})")
     {
         _bpe = bpe;
         _rules = rules;
         _nfc = nfc;
         _added = f.Added.Where(a => !a.Special && a.Content.Length > 0).OrderByDescending(a => a.Content.Length).ToArray();
+        _addedFirst = System.Buffers.SearchValues.Create(_added.Select(a => a.Content[0]).Distinct().ToArray());
     }
 
     /// <inheritdoc/>
@@ -51,8 +53,11 @@ public sealed class ByteLevelJsonTokenizer : TokenizerJsonTokenizer
             int from = 0, p = 0;
             while (p < text.Length)
             {
+                int skip = text[p..].IndexOfAny(owner._addedFirst);
+                if (skip < 0) break;
+                p += skip;
                 int id = -1, len = 0;
-                foreach (var a in added)
+                foreach (var a in added) // longest first: the leftmost-longest match, as the reference's
                     if (text[p..].StartsWith(a.Content, StringComparison.Ordinal)) { id = a.Id; len = a.Content.Length; break; }
                 if (id < 0) { p++; continue; }
                 Segment(text[from..p]);

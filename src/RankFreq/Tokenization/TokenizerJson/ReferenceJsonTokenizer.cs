@@ -1,5 +1,4 @@
 using System.Text.Json;
-using System.Text.Json.Nodes;
 using Hf = Tokenizers.DotNet;
 
 namespace RankFreq.Tokenization;
@@ -22,7 +21,7 @@ public sealed class ReferenceJsonTokenizer : TokenizerJsonTokenizer, IDisposable
     private readonly uint[] _empty;
 
     internal ReferenceJsonTokenizer(TokenizerJsonFile f, bool cutSafe, bool byteLevel, string why)
-        : base(f.Path, "as the file's normalizer", cutSafe, DisplayForms(f, byteLevel), $"reference library ({why})")
+        : base(f.Path, "as the file's normalizer", cutSafe, f, byteLevel, $"reference library ({why})")
     {
         if (!System.Runtime.CompilerServices.RuntimeFeature.IsDynamicCodeSupported && !NativeLoads())
             throw new TokenizerException($"{f.Path}: this file needs the reference tokenizers library ({why}), which the " +
@@ -30,7 +29,7 @@ public sealed class ReferenceJsonTokenizer : TokenizerJsonTokenizer, IDisposable
         string tmp = Path.Combine(Path.GetTempPath(), $"rankfreq-{Environment.ProcessId}-{Guid.NewGuid():N}.json");
         try
         {
-            File.WriteAllText(tmp, WithoutSpecials(f.Root));
+            File.WriteAllBytes(tmp, WithoutSpecials(f.Root));
             _reference = new Hf.Tokenizer(tmp);
         }
         catch (Exception e) when (e is not TokenizerException)
@@ -59,33 +58,37 @@ public sealed class ReferenceJsonTokenizer : TokenizerJsonTokenizer, IDisposable
     private static string OneLine(string s) => s.ReplaceLineEndings(" ").Trim();
 
     /// <summary>The file's JSON with its special added tokens made unmatchable and without a post-processor.</summary>
-    internal static string WithoutSpecials(JsonElement root)
+    internal static byte[] WithoutSpecials(JsonElement root)
     {
-        var o = new JsonObject();
-        foreach (var p in root.EnumerateObject())
+        var buffer = new System.Buffers.ArrayBufferWriter<byte>();
+        using (var w = new Utf8JsonWriter(buffer))
         {
-            if (p.NameEquals("post_processor")) { o[p.Name] = null; continue; }
-            if (p.NameEquals("added_tokens") && p.Value.ValueKind == JsonValueKind.Array)
+            w.WriteStartObject();
+            foreach (var p in root.EnumerateObject())
             {
+                if (p.NameEquals("post_processor")) { w.WriteNull(p.Name); continue; }
+                w.WritePropertyName(p.Name);
+                if (!p.NameEquals("added_tokens") || p.Value.ValueKind != JsonValueKind.Array) { p.Value.WriteTo(w); continue; }
                 // special entries keep their place (removing them would renumber later added tokens) under a content
                 // that never occurs in text: two Unicode noncharacters around a name
-                var list = new JsonArray();
+                w.WriteStartArray();
                 foreach (var a in p.Value.EnumerateArray())
                 {
-                    var node = JsonNode.Parse(a.GetRawText())!;
-                    if (TokenizerJsonFile.Flag(a, "special") && node is JsonObject entry)
+                    if (!TokenizerJsonFile.Flag(a, "special") || a.ValueKind != JsonValueKind.Object) { a.WriteTo(w); continue; }
+                    w.WriteStartObject();
+                    foreach (var f in a.EnumerateObject())
                     {
-                        entry["content"] = $"\uFDD0rankfreq special {TokenizerJsonFile.Prop(a, "id")}\uFDD1";
-                        entry["normalized"] = false;
+                        if (f.NameEquals("content")) w.WriteString(f.Name, $"\uFDD0rankfreq special {TokenizerJsonFile.Prop(a, "id")}\uFDD1");
+                        else if (f.NameEquals("normalized")) w.WriteBoolean(f.Name, false);
+                        else f.WriteTo(w);
                     }
-                    list.Add(node);
+                    w.WriteEndObject();
                 }
-                o[p.Name] = list;
-                continue;
+                w.WriteEndArray();
             }
-            o[p.Name] = JsonNode.Parse(p.Value.GetRawText());
+            w.WriteEndObject();
         }
-        return o.ToJsonString();
+        return buffer.WrittenSpan.ToArray();
     }
 
     /// <summary>The reference's ids for one text, without anything the empty text also encodes to.</summary>

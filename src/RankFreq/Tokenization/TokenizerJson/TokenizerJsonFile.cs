@@ -19,6 +19,7 @@ internal sealed record AddedTokenEntry(int Id, string Content, bool Special, boo
 internal sealed class TokenizerJsonFile : IDisposable
 {
     private readonly JsonDocument _doc;
+    private int? _idLimit;
 
     private TokenizerJsonFile(string path, JsonDocument doc)
     {
@@ -40,13 +41,13 @@ internal sealed class TokenizerJsonFile : IDisposable
     public JsonElement PreTokenizer => Prop(Root, "pre_tokenizer");
     /// <summary>Model vocabulary: token string → id.</summary>
     public Dictionary<string, int> Vocab { get; } = new(StringComparer.Ordinal);
-    /// <summary>BPE merges in rank order.</summary>
-    public List<(string Left, string Right)> Merges { get; } = [];
+    /// <summary>BPE merges in rank order, as ids: left, right and the merged token.</summary>
+    public List<(int Left, int Right, int Merged)> Merges { get; } = [];
     /// <summary>Added tokens, special or not.</summary>
     public List<AddedTokenEntry> Added { get; } = [];
 
     /// <summary>One past the largest id of the vocabulary and the added tokens.</summary>
-    public int IdLimit => Math.Max(Vocab.Count == 0 ? 0 : Vocab.Values.Max() + 1, Added.Count == 0 ? 0 : Added.Max(a => a.Id) + 1);
+    public int IdLimit => _idLimit ??= Math.Max(Vocab.Count == 0 ? 0 : Vocab.Values.Max() + 1, Added.Count == 0 ? 0 : Added.Max(a => a.Id) + 1);
 
     /// <summary>Reads and checks a tokenizer.json file.</summary>
     public static TokenizerJsonFile Read(string path)
@@ -136,30 +137,43 @@ internal sealed class TokenizerJsonFile : IDisposable
         var merges = Prop(Model, "merges");
         if (merges.ValueKind is JsonValueKind.Undefined or JsonValueKind.Null) return;
         if (merges.ValueKind != JsonValueKind.Array) throw Bad("the BPE model's \"merges\" is not a list");
+        Merges.Capacity = merges.GetArrayLength();
         string prefix = Prop(Model, "continuing_subword_prefix") is { ValueKind: JsonValueKind.String } cp ? cp.GetString()! : "";
+        var lookup = Vocab.GetAlternateLookup<ReadOnlySpan<char>>();
+        char[] joined = new char[256];
         int n = 0;
         foreach (var m in merges.EnumerateArray())
         {
             n++;
-            string a, b;
+            string s;
+            int split; // a = s[..split], b = s[(split + gap)..]
+            int gap = 1;
             if (m.ValueKind == JsonValueKind.String)
             {
-                var s = m.GetString()!;
-                int sp = s.IndexOf(' ', 1);
-                if (sp < 0 || s.IndexOf(' ', sp + 1) >= 0) throw Bad($"merge {n} (\"{s}\") is not two tokens separated by a space");
-                a = s[..sp]; b = s[(sp + 1)..];
+                s = m.GetString()!;
+                split = s.Length > 1 ? s.IndexOf(' ', 1) : -1;
+                if (split < 0 || s.IndexOf(' ', split + 1) >= 0) throw Bad($"merge {n} (\"{s}\") is not two tokens separated by a space");
             }
             else if (m.ValueKind == JsonValueKind.Array && m.GetArrayLength() == 2 &&
                      m[0].ValueKind == JsonValueKind.String && m[1].ValueKind == JsonValueKind.String)
             {
-                a = m[0].GetString()!; b = m[1].GetString()!;
+                string a0 = m[0].GetString()!;
+                s = a0 + m[1].GetString()!;
+                split = a0.Length;
+                gap = 0;
             }
             else throw Bad($"merge {n} is neither \"A B\" nor [\"A\", \"B\"]");
-            if (!Vocab.ContainsKey(a)) throw Bad($"merge {n} names \"{a}\", which is not in the vocabulary");
-            if (!Vocab.ContainsKey(b)) throw Bad($"merge {n} names \"{b}\", which is not in the vocabulary");
-            string joined = a + (prefix.Length > 0 && b.StartsWith(prefix, StringComparison.Ordinal) ? b[prefix.Length..] : b);
-            if (!Vocab.ContainsKey(joined)) throw Bad($"merge {n} makes \"{joined}\", which is not in the vocabulary");
-            Merges.Add((a, b));
+            var a = s.AsSpan(0, split);
+            var b = s.AsSpan(split + gap);
+            if (!lookup.TryGetValue(a, out int ia)) throw Bad($"merge {n} names \"{a}\", which is not in the vocabulary");
+            if (!lookup.TryGetValue(b, out int ib)) throw Bad($"merge {n} names \"{b}\", which is not in the vocabulary");
+            if (prefix.Length > 0 && b.StartsWith(prefix, StringComparison.Ordinal)) b = b[prefix.Length..];
+            if (joined.Length < a.Length + b.Length) joined = new char[a.Length + b.Length];
+            a.CopyTo(joined);
+            b.CopyTo(joined.AsSpan(a.Length));
+            var ab = joined.AsSpan(0, a.Length + b.Length);
+            if (!lookup.TryGetValue(ab, out int iab)) throw Bad($"merge {n} makes \"{ab}\", which is not in the vocabulary");
+            Merges.Add((ia, ib, iab));
         }
     }
 

@@ -20,12 +20,19 @@ public abstract class TokenizerJsonTokenizer : ITokenizer
     private protected const int CutAt = 1 << 20; // characters buffered before a long document is cut (when it may be)
     private readonly string[] _display;
 
-    private protected TokenizerJsonTokenizer(string path, string normalization, bool cutSafe, string[] display, string engine)
+    private readonly string?[] _raw;
+    private readonly bool _byteLevel;
+
+    private protected TokenizerJsonTokenizer(string path, string normalization, bool cutSafe, TokenizerJsonFile f, bool byteLevel, string engine)
     {
+        _raw = new string[f.IdLimit];
+        foreach (var (token, id) in f.Vocab) _raw[id] = token;
+        foreach (var a in f.Added) _raw[a.Id] = a.Content;
+        _byteLevel = byteLevel;
+        _display = new string[_raw.Length];
         Spec = "hf:" + path;
         Normalization = normalization;
         CutSafe = cutSafe;
-        _display = display;
         Engine = engine;
     }
 
@@ -54,7 +61,12 @@ public abstract class TokenizerJsonTokenizer : ITokenizer
     public Sources.RangeCut RangeCut => CutSafe ? Sources.RangeCut.NewlineBeforeAsciiLetter : Sources.RangeCut.None;
 
     /// <inheritdoc/>
-    public string DisplayToken(int id) => (uint)id < (uint)_display.Length && _display[id] is { } s ? s : $"<id {id}>";
+    public string DisplayToken(int id)
+    {
+        if ((uint)id >= (uint)_display.Length || _raw[id] is not { } raw) return $"<id {id}>";
+        // made on first use: most ids are never shown
+        return _display[id] ??= _byteLevel && ByteLevelAlphabet.ToBytes(raw) is { } b ? SubwordTokenizer.Readable(b) : raw;
+    }
 
     /// <inheritdoc/>
     public abstract ITokenizerSession CreateSession(ITokenSink sink);
@@ -109,15 +121,5 @@ public abstract class TokenizerJsonTokenizer : ITokenizer
 
         /// <summary>Encodes a whole document, or a part of one cut where <see cref="CutSafe"/> allows.</summary>
         protected abstract void Encode(ReadOnlySpan<char> text);
-    }
-
-    /// <summary>Readable display forms: byte-level tokens as their bytes (see <see cref="SubwordTokenizer"/>), others as written.</summary>
-    internal static string[] DisplayForms(TokenizerJsonFile f, bool byteLevel)
-    {
-        var d = new string[f.IdLimit];
-        foreach (var (token, id) in f.Vocab)
-            d[id] = byteLevel && ByteLevelAlphabet.ToBytes(token) is { } b ? SubwordTokenizer.Readable(b) : token;
-        foreach (var a in f.Added) d[a.Id] = a.Content;
-        return d;
     }
 }
