@@ -19,12 +19,12 @@ big="$work/kjv-x$copies.jsonl"
 ls -l "$big" | awk '{print "input: " $5 " bytes"}'
 for r in 1 2 3; do
   cat "$big" > /dev/null
-  /usr/bin/time -f "rankfreq -t $name, round $r: %e s wall, %M KB max RSS" \
+  /usr/bin/time -f "rankfreq -t $name, round $r: %e s wall, %U s user, %M KB max RSS" \
     "$work/native/rankfreq" count "$big" -t "hf:$tok" -o "$work/tj.parquet" -q --threads "$threads"
-  /usr/bin/time -f "rankfreq -t o200k_base, round $r: %e s wall, %M KB max RSS" \
+  /usr/bin/time -f "rankfreq -t o200k_base, round $r: %e s wall, %U s user, %M KB max RSS" \
     "$work/native/rankfreq" count "$big" -t o200k_base -o "$work/o2.parquet" -q --threads "$threads"
 done
 for r in 1 2; do
-  /usr/bin/time -f "reference (node encodeBatch), round $r: %e s wall, %M KB max RSS" \
+  /usr/bin/time -f "reference (node encodeBatch), round $r: %e s wall, %U s user, %M KB max RSS" \
     node tests/js/tokenizer-reference.js count "$tok" jsonl "$big" > "$work/ref-counts.txt"
 done

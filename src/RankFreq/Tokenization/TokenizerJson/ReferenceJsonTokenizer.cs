@@ -23,9 +23,9 @@ public sealed class ReferenceJsonTokenizer : TokenizerJsonTokenizer, IDisposable
     internal ReferenceJsonTokenizer(TokenizerJsonFile f, bool cutSafe, bool byteLevel, string why)
         : base(f.Path, "as the file's normalizer", cutSafe, f, byteLevel, $"reference library ({why})")
     {
-        if (!System.Runtime.CompilerServices.RuntimeFeature.IsDynamicCodeSupported && !NativeLoads())
-            throw new TokenizerException($"{f.Path}: this file needs the reference tokenizers library ({why}), which the " +
-                                         "native build cannot load; use the framework-dependent build (dotnet tool or dotnet run)");
+        if (!NativeLoads())
+            throw new TokenizerException($"{f.Path}: this file needs the reference tokenizers library ({why}), but its " +
+                                         "native file libhf_tokenizers.so was not found beside the program");
         string tmp = Path.Combine(Path.GetTempPath(), $"rankfreq-{Environment.ProcessId}-{Guid.NewGuid():N}.json");
         try
         {
