@@ -168,7 +168,9 @@ public class TokenizerJsonTests
         "", " ", "    ", "a  b   c", "\t\tx\n\n\ny", "trailing spaces   ", "line\n  ", "\n  ", "\r\n\r\n", " \n \n x",
         "unassigned \u0378 and \uFFFF", "12345678901 3.14159 1,000,000", "\u0661\u0662\u0663\u0664 \u0967\u0968",
         "\U0001D7CF\U0001D7D0\U0001D7D1 astral digits", "\U0001F44D\U0001F3FD fam \U0001F468\u200D\U0001F469\u200D\U0001F467 \U0001F1EB\U0001F1F7",
-        "\u03A9mega \u0395\u03BB\u03BB\u03B7\u03BD\u03B9\u03BA\u03AC \u041A\u0438\u0440\u0438\u043B\u043B\u0438\u0446\u0430 \u4E2D\u6587\u5B57 \u65E5\u672C\u8A9E\u306E \uD55C\uAD6D\uC5B4 \u0639\u0631\u0628\u0649 \u05E2\u05D1\u05E8\u05D9\u05EA \u0939\u093F\u0928\u094D\u0926\u0940 \u0E44\u0E17\u0E22",
+        "\u03A9mega \u0395\u03BB\u03BB\u03B7\u03BD\u03B9\u03BA\u03AC \u041A\u0438\u0440\u0438\u043B\u043B\u0438\u0446\u0430 " +
+        "\u4E2D\u6587\u5B57 \u65E5\u672C\u8A9E\u306E \uD55C\uAD6D\uC5B4 \u0639\u0631\u0628\u0649 \u05E2\u05D1\u05E8\u05D9\u05EA " +
+        "\u0939\u093F\u0928\u094D\u0926\u0940 \u0E44\u0E17\u0E22",
         "e\u0301 a\u0308 n\u0303 \u00C5 A\u030A \uFB01ne \u1E9B\u0323 \u0041\u0338", " \u0301\u0301 lone marks",
         "\U0001D400\U0001D401\U0001D402 \U0001D49C\U0001D4C1 \U00010330\U00010331 \U00020000\U00020001 x\U00020000y",
         "I'M he'S they'LL we'Ve it'd \u017F 'x '\u017F", "<|endoftext|> <s> </s> <bos> [CLS] <unk> <think>x</think> a<tool_call>b",
@@ -189,7 +191,8 @@ public class TokenizerJsonTests
         for (int i = 0; i < EdgeStrings.Length; i++)
         {
             var got = string.Join(' ', t.EncodeDocument(EdgeStrings[i]));
-            Assert.True(expected[i] == got, $"{name}, edge string {i} ({JsonSerializer.Serialize(EdgeStrings[i])[..Math.Min(60, EdgeStrings[i].Length + 2)]}): reference [{expected[i]}], ours [{got}]");
+            var shown = JsonSerializer.Serialize(EdgeStrings[i]);
+            Assert.True(expected[i] == got, $"{name}, edge string {i} ({shown[..Math.Min(60, shown.Length)]}): reference [{expected[i]}], ours [{got}]");
         }
     }
 

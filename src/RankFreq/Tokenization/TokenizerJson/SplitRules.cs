@@ -16,7 +16,10 @@ internal sealed class SplitRule
         _matcher = matcher; _regex = regex; CutSafe = cutSafe; Describe = describe;
     }
 
-    /// <summary>A newline followed by an ASCII letter is always a piece boundary, and the pieces before it are the same whether or not the text goes on.</summary>
+    /// <summary>
+    /// A newline followed by an ASCII letter is always a piece boundary, and the pieces before it are the same whether
+    /// or not the text goes on.
+    /// </summary>
     public bool CutSafe { get; }
 
     /// <summary>Which splitter runs (for the tokenizer's description and the tests).</summary>
