@@ -49,7 +49,13 @@ internal static class TiktokenSplitters
     /// End of the cl100k_base chunk starting at <paramref name="p"/>:
     /// <code>'(?i:[sdmt]|ll|ve|re)|(?>[^\r\n\p{L}\p{N}]?)(?>\p{L}+)|(?>\p{N}{1,3})| ?(?>[^\s\p{L}\p{N}]+)(?>[\r\n]*)|(?>\s+)$|\s*[\r\n]|\s+(?!\S)|\s</code>
     /// </summary>
-    internal static int MatchCl100k(ReadOnlySpan<char> t, int p)
+    internal static int MatchCl100k(ReadOnlySpan<char> t, int p) => MatchCl100kFamily(t, p, 3);
+
+    /// <summary>
+    /// The cl100k_base rule with numbers in runs of at most <paramref name="maxDigits"/> (1: the <c>\p{N}</c> variant
+    /// that some tokenizer.json files use in place of <c>\p{N}{1,3}</c>).
+    /// </summary>
+    internal static int MatchCl100kFamily(ReadOnlySpan<char> t, int p, int maxDigits)
     {
         int n = t.Length, e;
         char c = t[p];
@@ -68,7 +74,7 @@ internal static class TiktokenSplitters
         if ((k & N) != 0)
         {
             e = p + 1;
-            while (e < n && e < p + 3 && (Class(t[e]) & N) != 0) e++;
+            while (e < n && e < p + maxDigits && (Class(t[e]) & N) != 0) e++;
             return e;
         }
         // 4: an optional space, other characters, then any newlines

@@ -18,6 +18,7 @@ public static class TokenizerFactory
         ("bpe:VOCAB.json,MERGES.txt", "byte-level BPE from a vocabulary and merges file"),
         ("sentencepiece:MODEL", "SentencePiece model file (encoded line by line)"),
         ("wordpiece:VOCAB.txt", "WordPiece vocabulary, one token a line"),
+        ("hf:TOKENIZER.json", "Hugging Face tokenizer.json (also any path ending in .json); special tokens count as text"),
     ];
 
     /// <summary>Creates the tokenizer a spec names; throws <see cref="SettingsException"/> for a spec that names no
@@ -33,6 +34,8 @@ public static class TokenizerFactory
             case "chars": return new GraphemeTokenizer();
             case "cl100k_base" or "o200k_base" or "r50k_base": return SubwordTokenizer.Tiktoken(spec);
         }
+        if (spec.StartsWith("hf:", StringComparison.Ordinal)) return TokenizerJsonLoader.Load(spec[3..]);
+        if (spec.EndsWith(".json", StringComparison.OrdinalIgnoreCase)) return TokenizerJsonLoader.Load(spec);
         int colon = spec.IndexOf(':');
         if (colon > 0)
         {

@@ -75,6 +75,18 @@ public class NativeBuildTests
         Assert.True(new FileInfo(Path.Combine(d["p"], "report.html")).Length > 10_000);
         Assert.True(File.Exists(Path.Combine(d["p"], "rank-frequency.svg")));
 
+        // tokenizer.json files (when .ci/run installed them): the fast engine and the reference library's, same totals
+        if (RankFreq.Tests.Tokenization.TokenizerFiles.Root is not null)
+            foreach (var name in new[] { "llama3", "gemma3" })
+            {
+                var tok = RankFreq.Tests.Tokenization.TokenizerFiles.Path_(name);
+                (code, o, e) = Run(exe, "count", demo, "-o", d[name + ".parquet"], "-t", "hf:" + tok, "--json");
+                Assert.True(code == 0, e);
+                using var rt = CountEngine.Count([demo], new CountSettings(Tokenizer: "hf:" + tok));
+                using var j = JsonDocument.Parse(o);
+                Assert.Equal(rt.Summary.Tokens, j.RootElement.GetProperty("tokens").GetInt64());
+            }
+
         // errors keep their exit codes
         Assert.Equal(1, Run(exe, "count", d["missing.txt"], "-o", d["x.parquet"]).Code);
         Assert.Equal(2, Run(exe, "count").Code);
