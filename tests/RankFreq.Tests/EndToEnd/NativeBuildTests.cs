@@ -82,7 +82,7 @@ public class NativeBuildTests
                 var tok = RankFreq.Tests.Tokenization.TokenizerFiles.Path_(name);
                 (code, o, e) = Run(exe, "count", demo, "-o", d[name + ".parquet"], "-t", "hf:" + tok, "--json");
                 Assert.True(code == 0, e);
-                using var rt = CountEngine.Count([demo], new CountSettings(Tokenizer: "hf:" + tok));
+                using var rt = CountJob.Count([demo], new CountSettings(Tokenizer: "hf:" + tok));
                 using var j = JsonDocument.Parse(o);
                 Assert.Equal(rt.Summary.Tokens, j.RootElement.GetProperty("tokens").GetInt64());
             }

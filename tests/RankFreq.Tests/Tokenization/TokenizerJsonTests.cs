@@ -1,6 +1,7 @@
 using System.Diagnostics;
 using System.Text;
 using System.Text.Json;
+using RankFreq.Jobs;
 using RankFreq.Counting;
 using RankFreq.Tokenization;
 using Xunit;
@@ -133,7 +134,7 @@ public class TokenizerJsonTests
             foreach (var line in File.ReadLines(Corpora.File("kjv-bible.txt")))
                 w.WriteLine(JsonSerializer.Serialize(new Dictionary<string, string> { ["text"] = line }));
         var reference = TokenizerFiles.ReferenceCounts(tok, "jsonl", jsonl);
-        using var ours = CountEngine.Count([jsonl], new CountSettings("hf:" + tok, Threads: 2, SplitAboveBytes: 256 << 10));
+        using var ours = CountJob.Count([jsonl], new CountSettings("hf:" + tok, Threads: 2, SplitAboveBytes: 256 << 10));
         SameCounts(reference, ours, $"{name}, KJV verses");
     }
 
@@ -145,7 +146,7 @@ public class TokenizerJsonTests
         string tok = TokenizerFiles.Path_(name);
         var kjv = Corpora.File("kjv-bible.txt");
         var reference = TokenizerFiles.ReferenceCounts(tok, "text", kjv);
-        using var ours = CountEngine.Count([kjv], new CountSettings("hf:" + tok, Threads: 2, SplitAboveBytes: 256 << 10));
+        using var ours = CountJob.Count([kjv], new CountSettings("hf:" + tok, Threads: 2, SplitAboveBytes: 256 << 10));
         SameCounts(reference, ours, $"{name}, KJV as one text");
     }
 
@@ -158,7 +159,7 @@ public class TokenizerJsonTests
         var dir = Path.GetDirectoryName(Corpora.File(Path.Combine("udhr", "007.txt")))!;
         var files = Directory.GetFiles(dir, "*.txt").Order(StringComparer.Ordinal).ToArray();
         var reference = TokenizerFiles.ReferenceCounts(tok, "text", files);
-        using var ours = CountEngine.Count(files, new CountSettings("hf:" + tok, Threads: 2));
+        using var ours = CountJob.Count(files, new CountSettings("hf:" + tok, Threads: 2));
         SameCounts(reference, ours, $"{name}, UDHR");
     }
 
