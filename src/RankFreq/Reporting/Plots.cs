@@ -13,9 +13,9 @@ namespace RankFreq.Reporting;
 public static class Plots
 {
     private static readonly Color Paper = Color.FromHex("#FBF8F1");
-    private static readonly Color Ink = Color.FromHex("#23395B");
-    private static readonly Color Ember = Color.FromHex("#D1495B");
-    private static readonly Color Moss = Color.FromHex("#5B8C5A");
+    internal static readonly Color Ink = Color.FromHex("#23395B");
+    internal static readonly Color Ember = Color.FromHex("#D1495B");
+    internal static readonly Color Moss = Color.FromHex("#5B8C5A");
     private static readonly Color Grid = Color.FromHex("#E6DFD0");
     private const string FontName = "sans-serif";
     private static readonly Lazy<string?> FontFile = new(FindFont);
@@ -38,7 +38,7 @@ public static class Plots
         return font;
     }
 
-    private static Plot NewPlot(string title, string x, string y)
+    internal static Plot NewPlot(string title, string x, string y)
     {
         _ = FontFile.Value;
         var p = new Plot();
@@ -53,7 +53,7 @@ public static class Plots
         return p;
     }
 
-    private static void LogAxes(Plot p)
+    internal static void LogAxes(Plot p)
     {
         static string Decade(double v) => Math.Abs(v - Math.Round(v)) < 1e-9 ? (Math.Round(v) is var k && k >= 0 && k <= 6 ? Math.Pow(10, k).ToString("N0") : $"1e{k}") : "";
         foreach (var axis in new ScottPlot.IAxis[] { p.Axes.Bottom, p.Axes.Left })
@@ -65,7 +65,7 @@ public static class Plots
             };
     }
 
-    private static RenderedPlot Render(Plot p, string name, string title) =>
+    internal static RenderedPlot Render(Plot p, string name, string title) =>
         new(name, title, p.GetSvgXml(760, 480), Font is null ? null : p.GetImageBytes(760, 480, ImageFormat.Png));
 
     /// <summary>Rank–frequency on log–log axes with the fitted tail.</summary>
