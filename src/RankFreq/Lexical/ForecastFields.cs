@@ -30,6 +30,8 @@ public static class ForecastFields
         new("types_hi", FieldKind.Real, p => p.TypesHi, "types 97.5%", "N0"),
         new("types_sd", FieldKind.Real, p => p.TypesSd, "sampling sd", "N0", Shown: false),
         new("types_exact", FieldKind.Real, p => p.TypesExact, "types, exact in-sample", "N0"),
+        new("types_models_min", FieldKind.Real, p => p.TypesModelsMin, "types, lowest model", "N0"),
+        new("types_models_max", FieldKind.Real, p => p.TypesModelsMax, "types, highest model", "N0"),
         new("hapax", FieldKind.Real, p => p.Hapax, "hapax", "N0"),
         new("hapax_lo", FieldKind.Real, p => p.HapaxLo, "hapax 2.5%", "N0", Shown: false),
         new("hapax_hi", FieldKind.Real, p => p.HapaxHi, "hapax 97.5%", "N0", Shown: false),

@@ -18,6 +18,10 @@ namespace RankFreq.Lexical;
 /// N tokens.</param>
 /// <param name="CoverageLo">2.5% bootstrap quantile.</param>
 /// <param name="CoverageHi">97.5% bootstrap quantile.</param>
+/// <param name="TypesModelsMin">Smallest E[V(N)] among all fitted models: the finite models (fZM, GIGP) level off
+/// towards their population vocabulary and tend to forecast too few types.</param>
+/// <param name="TypesModelsMax">Largest E[V(N)] among all fitted models: the Zipf–Mandelbrot model, with infinitely
+/// many types, tends to forecast too many. On held-out real text the truth lay between the two.</param>
 public sealed record ForecastPoint(double Tokens, string Region, double Types, double TypesLo, double TypesHi, double TypesSd,
     double TypesExact, double Hapax, double HapaxLo, double HapaxHi, double Dis, double CoverageTypes, double CoverageLo,
-    double CoverageHi);
+    double CoverageHi, double TypesModelsMin, double TypesModelsMax);

@@ -25,6 +25,8 @@ public static class Forecaster
             + "the sample; far beyond it the choice of model matters more than the interval shows.",
         "Vocabulary models usually fail the goodness-of-fit test on large samples (p near 0): a small p says the model is "
             + "not exact, not that its forecast is useless. Held-out checks on real text are in the documentation.",
+        "The models disagree beyond the sample: the Zipf–Mandelbrot model (infinitely many types) tends to forecast too "
+            + "many types, the finite models (fZM, GIGP) too few; types_models_min and types_models_max give the spread.",
     ];
 
     /// <summary>Fits the models and computes the curve.</summary>
@@ -77,6 +79,7 @@ public static class Forecaster
             types[r] = t; hapax[r] = hx; cover[r] = c;
         });
         var ok = Enumerable.Range(0, o.Reps).Where(r => types[r] is not null).ToList();
+        var fitted = fits.Where(f => f.Model is not null).Select(f => f.Model!).ToList();
         var points = new ForecastPoint[p];
         for (int i = 0; i < p; i++)
         {
@@ -89,7 +92,7 @@ public static class Forecaster
             string region = x < n ? "interpolation" : x == n ? "sample" : "extrapolation";
             points[i] = new ForecastPoint(x, region, ev, tl, th, Math.Sqrt(Math.Max(0, model.ExpectedTypes(2 * x) - ev)),
                 x <= n ? Lexicon.ExpectedTypes(s, (long)Math.Round(x)) : double.NaN, es[1], hl, hh, es[2],
-                model.CoverageTypes(o.Coverage, x), cl, ch);
+                model.CoverageTypes(o.Coverage, x), cl, ch, fitted.Min(f => f.ExpectedTypes(x)), fitted.Max(f => f.ExpectedTypes(x)));
         }
         return new ForecastResult(s.TokenCount, s.TypeCount, v1, fits, chosen, reason, points, o, ok.Count, Cautions);
     }
