@@ -97,6 +97,20 @@ public static class Forecaster
         return new ForecastResult(s.TokenCount, s.TypeCount, v1, fits, chosen, reason, points, o, ok.Count, Cautions);
     }
 
+    /// <summary>The sample's own vocabulary covering a share q of its tokens: types taken from the most frequent down,
+    /// the last frequency class counted in part (the quantity <see cref="LnreModel.CoverageTypes"/> forecasts).</summary>
+    public static double ObservedCoverageTypes(FrequencySpectrum s, double q)
+    {
+        double need = q * s.TokenCount, tokens = 0, types = 0;
+        for (int i = s.Values.Length - 1; i >= 0; i--)
+        {
+            double t = (double)s.Values[i] * s.Types[i];
+            if (tokens + t >= need) return types + s.Types[i] * (need - tokens) / t;
+            tokens += t; types += s.Types[i];
+        }
+        return types;
+    }
+
     /// <summary>Log-spaced sizes from N/1000 (at least 10 tokens) to the largest target, with N and every target.</summary>
     public static double[] Grid(double n, ForecastOptions o)
     {

@@ -149,6 +149,19 @@ public class LnreModelTests
         var atN = r.Points.Single(p => p.Region == "sample");
         Assert.Equal(s.TypeCount, atN.Types, 1e-6 * s.TypeCount);       // fitted with E[V(N)] = V
         Assert.Equal(s.TypeCount, atN.TypesExact, 1e-9 * s.TypeCount);
+        // the vocabulary covering 99% of the sample's tokens, from the model's expected spectrum, against the count
+        // read off the sample itself (types from the most frequent down): within 3%
+        double seen = Forecaster.ObservedCoverageTypes(s, 0.99);
+        Assert.True(Math.Abs(atN.CoverageTypes - seen) < 0.03 * seen, $"coverage {atN.CoverageTypes:F0} vs observed {seen:F0}");
+    }
+
+    [Fact]
+    public void ObservedCoverageIsCountedFromTheTop()
+    {
+        // hand-computed: counts 50, 30, 10, 5×2 (N = 100); 80% of the tokens are the two top types, 95% need 4.5 types
+        var s = FrequencySpectrum.FromCounts([50, 30, 10, 2, 2, 2, 2, 2]);
+        Assert.Equal(2, Forecaster.ObservedCoverageTypes(s, 0.80), 12);
+        Assert.Equal(3 + 2.5, Forecaster.ObservedCoverageTypes(s, 0.95), 12);
     }
 
     [Fact]
