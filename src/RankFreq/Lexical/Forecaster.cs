@@ -35,7 +35,7 @@ public static class Forecaster
         long v1 = s.Values.Length > 0 && s.Values[0] == 1 ? s.Types[0] : 0;
         var families = o.Family == "auto" ? LnreFitter.Families : [o.Family];
         var fits = LnreFitter.Families.Select(f => families.Contains(f) ? LnreFitter.Fit(s, f)
-            : LnreFit.Failed(f, LnreStatus.NotConverged, "not tried (another model was asked for)")).ToList();
+            : LnreFit.Failed(f, LnreStatus.Skipped, "not fitted: another model was asked for")).ToList();
         var tried = fits.Where(f => families.Contains(f.Family)).ToList();
         var chosen = LnreFitter.Best(tried);
         string reason = Reason(tried, chosen, o.Family);

@@ -95,7 +95,7 @@ public static class LnreFitter
         var (xmin, fmin, converged) = NelderMead(Cost, best, start is null ? 0.5 : 0.1, start is null ? 600 : 200);
         var model = build(xmin);
         if (model is null || fmin >= double.MaxValue)
-            return LnreFit.Failed(family, LnreStatus.NoSolution, $"no {family} parameters reproduce V = {h.Tokens:N0}", k);
+            return LnreFit.Failed(family, LnreStatus.NoSolution, $"no {family} parameters reproduce V = {h.Types:N0} at N = {h.Tokens:N0}", k);
         if (!converged)
             return new LnreFit(family, null, LnreStatus.NotConverged, "the minimiser did not converge within its iteration limit", k, 0,
                 double.NaN, double.NaN, fmin);

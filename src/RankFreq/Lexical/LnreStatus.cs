@@ -17,13 +17,15 @@ public enum LnreStatus
     TooFewSpectrumElements,
     /// <summary>No parameter values reproduce the observed number of types.</summary>
     NoSolution,
+    /// <summary>Not fitted: another model was asked for.</summary>
+    Skipped,
 }
 
 /// <summary>The written form of an <see cref="LnreStatus"/>: snake_case in JSON, Parquet and the console.</summary>
 public static class LnreStatusNames
 {
     /// <summary>"ok", "not_converged", "too_few_types", "all_hapax", "no_hapax", "too_few_spectrum_elements",
-    /// "no_solution".</summary>
+    /// "no_solution", "skipped".</summary>
     public static string Of(LnreStatus s) => s switch
     {
         LnreStatus.Ok => "ok",
@@ -32,6 +34,7 @@ public static class LnreStatusNames
         LnreStatus.AllHapax => "all_hapax",
         LnreStatus.NoHapax => "no_hapax",
         LnreStatus.TooFewSpectrumElements => "too_few_spectrum_elements",
+        LnreStatus.Skipped => "skipped",
         _ => "no_solution",
     };
 }

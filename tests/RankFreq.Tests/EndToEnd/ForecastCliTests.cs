@@ -69,6 +69,7 @@ public class ForecastCliTests
         var (code, o, e) = Cli.Run("forecast", d["s.txt"], "--to", "5x", "--reps", "0", "--model", "gigp");
         Assert.True(code == 0, e);
         Assert.Contains("gigp as asked", o);
+        Assert.Contains("skipped", o);
         Assert.Contains("extrapolation", o);
         Assert.Contains("drawn like the sample", o);
     }
