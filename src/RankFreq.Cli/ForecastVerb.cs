@@ -10,7 +10,11 @@ internal static class ForecastVerb
     public static Command Build(TextWriter stdout, TextWriter stderr)
     {
         var input = new Argument<string>("input") { Description = "A count table (.parquet) or a text list of counts (one a line, or 'value types')" };
-        var to = new Option<string[]>("--to") { Description = "Size to forecast to: a multiple of the sample (10x) or tokens (1e9); repeatable", DefaultValueFactory = _ => ["10x"] };
+        var to = new Option<string[]>("--to")
+        {
+            Description = "Size to forecast to: a multiple of the sample (10x) or tokens (1e9); repeatable",
+            DefaultValueFactory = _ => ["10x"],
+        };
         var points = new Option<int>("--points") { Description = "Points on the curve", DefaultValueFactory = _ => 100 };
         var coverage = new Option<double>("--coverage") { Description = "Share of tokens the vocabulary must cover", DefaultValueFactory = _ => 0.99 };
         var reps = new Option<int>("--reps") { Description = "Bootstrap replicates for the intervals (0 skips)", DefaultValueFactory = _ => 200 };

@@ -57,9 +57,9 @@ public class LnreModelTests
     [Fact]
     public void InverseGaussPoissonHasItsElementaryForm()
     {
-        // Sichel's inverse Gauss–Poisson is the GIGP with γ = −1/2, where K_(1/2)(x) = √(π/(2x)) e^(−x) (Abramowitz &
-        // Stegun 10.2.17) makes E[V(N)] = S (1 − e^(−b(√(1+Nc) − 1))) and S = 2/(bc) · K_(1/2)(b)/K_(1/2)(b) … with
-        // K_(−1/2) = K_(1/2): S = 2/(bc) exactly (Baayen 2001, §3.2; from memory)
+        // Sichel's inverse Gauss–Poisson is the GIGP with γ = −1/2. There K_(−1/2) = K_(1/2) and
+        // K_(1/2)(x) = √(π/(2x)) e^(−x) (Abramowitz & Stegun 10.2.17) make S = 2 K_γ(b)/(bc K_(γ+1)(b)) = 2/(bc) and
+        // E[V(N)] = S (1 − e^(−b(√(1+Nc) − 1))) (Baayen 2001, §3.2; from memory)
         var g = new GigpModel(-0.5, 0.02, 0.003);
         Assert.Equal(2 / (0.02 * 0.003), g.PopulationTypes, 1e-9 * g.PopulationTypes);
         foreach (double n in new[] { 1e3, 1e5, 1e7, 1e10 })
