@@ -61,6 +61,7 @@ public static class CliApp
         root.Subcommands.Add(CountVerb.Build(stdout, stderr));
         root.Subcommands.Add(MergeVerb.Build(stdout, stderr));
         root.Subcommands.Add(FitVerb.Build(stdout, stderr));
+        root.Subcommands.Add(ForecastVerb.Build(stdout, stderr));
         root.Subcommands.Add(ProfileVerb.Build(stdout, stderr));
         var tok = new Command("tokenizers", "List the tokenizer specs available.");
         tok.SetAction(_ =>

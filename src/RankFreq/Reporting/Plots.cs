@@ -13,9 +13,9 @@ namespace RankFreq.Reporting;
 public static class Plots
 {
     private static readonly Color Paper = Color.FromHex("#FBF8F1");
-    private static readonly Color Ink = Color.FromHex("#23395B");
-    private static readonly Color Ember = Color.FromHex("#D1495B");
-    private static readonly Color Moss = Color.FromHex("#5B8C5A");
+    internal static readonly Color Ink = Color.FromHex("#23395B");
+    internal static readonly Color Ember = Color.FromHex("#D1495B");
+    internal static readonly Color Moss = Color.FromHex("#5B8C5A");
     private static readonly Color Grid = Color.FromHex("#E6DFD0");
     private const string FontName = "sans-serif";
     private static readonly Lazy<string?> FontFile = new(FindFont);
@@ -38,7 +38,7 @@ public static class Plots
         return font;
     }
 
-    private static Plot NewPlot(string title, string x, string y)
+    internal static Plot NewPlot(string title, string x, string y)
     {
         _ = FontFile.Value;
         var p = new Plot();
@@ -74,7 +74,7 @@ public static class Plots
         return "10" + (k < 0 ? "⁻" : "") + string.Concat(digits.Select(c => Superscripts[c - '0']));
     }
 
-    private static void LogAxes(Plot p)
+    internal static void LogAxes(Plot p)
     {
         static string Decade(double v) => DecadeLabel(v);
         foreach (var axis in new ScottPlot.IAxis[] { p.Axes.Bottom, p.Axes.Left })
@@ -88,7 +88,7 @@ public static class Plots
 
     private const int Width = 760, Height = 480;
 
-    private static RenderedPlot Render(Plot p, string name, string title, bool logAxes = true)
+    internal static RenderedPlot Render(Plot p, string name, string title, bool logAxes = true)
     {
         if (logAxes) TwoDecadesAtLeast(p);
         return new(name, title, WithViewBox(p.GetSvgXml(Width, Height)), Font is null ? null : p.GetImageBytes(Width, Height, ImageFormat.Png));

@@ -10,10 +10,11 @@ namespace RankFreq.Tests.Architecture;
 /// </summary>
 public class StagesFlowOneWayTests
 {
-    /// <summary>Stage folders in flow order; statistics stages share a rank and may not use each other.</summary>
+    /// <summary>Stage folders in flow order. Lexical comes after Fitting: the vocabulary forecast uses its seeded random
+    /// streams (Xoshiro) and samplers.</summary>
     public static readonly string[][] Order =
     [
-        ["Primitives"], ["Sources"], ["Tokenization"], ["Counting"], ["Fitting", "Lexical"], ["Comparison"],
+        ["Primitives"], ["Sources"], ["Tokenization"], ["Counting"], ["Fitting"], ["Lexical"], ["Comparison"],
         ["Storage"], ["Reporting"], ["Jobs"],
     ];
 
