@@ -50,6 +50,12 @@ public sealed record SourceOptions(
 {
     /// <summary>Compressed files at least this large (stored size) are decompressed on a second thread while counting.</summary>
     public long ReadAheadAboveBytes { get; init; } = 4L << 20;
+
+    /// <summary>Per-record group key (<c>field:</c> or <c>column:</c>), reported to an <see cref="IGroupSink"/> before each record.</summary>
+    public GroupKey? Group { get; init; }
+
+    /// <summary>Skip (and count) records whose group value cannot be binned instead of failing.</summary>
+    public bool SkipBadGroupValues { get; init; }
 }
 
 /// <summary>Bad or unreadable input: the message names the file and, where known, the line or byte offset.</summary>
@@ -70,11 +76,14 @@ public sealed class SourceStats
     public long MalformedRecords;
     /// <summary>Records without the text field (or with a non-string value).</summary>
     public long MissingField;
+    /// <summary>Records skipped because their group value could not be binned (with --skip-bad).</summary>
+    public long BadGroupValues;
 
     /// <summary>Adds another worker's counters.</summary>
     public void Add(SourceStats o)
     {
         StoredBytes += o.StoredBytes; TextBytes += o.TextBytes; ReplacedBytes += o.ReplacedBytes;
         Records += o.Records; MalformedRecords += o.MalformedRecords; MissingField += o.MissingField;
+        BadGroupValues += o.BadGroupValues;
     }
 }
