@@ -4,6 +4,7 @@ using BenchmarkDotNet.Running;
 using RankFreq.Counting;
 using RankFreq.Fitting;
 using RankFreq.Tokenization;
+using RankFreq.Jobs;
 
 // Usage:
 //   dotnet run -c Release --project benchmarks/RankFreq.Benchmarks -- replicate   spectrum-level vs per-type replicate, one run
@@ -104,7 +105,7 @@ if (args.Length > 1 && args[0] == "count-phases")
     for (int round = 0; round < 2; round++)
     {
         var sw = Stopwatch.StartNew();
-        using var res = CountEngine.Count([args[1]], new CountSettings(Threads: 2));
+        using var res = CountJob.Count([args[1]], new CountSettings(Threads: 2));
         double tCount = sw.Elapsed.TotalSeconds;
         sw.Restart();
         string outPath = Path.Combine(Path.GetTempPath(), $"phases-{Environment.ProcessId}.parquet");

@@ -1,8 +1,6 @@
 using System.CommandLine;
 using System.Globalization;
-using RankFreq.Counting;
-using RankFreq.Sources;
-using RankFreq.Storage;
+using RankFreq.Primitives;
 using RankFreq.Tokenization;
 
 namespace RankFreq.Cli;
@@ -10,14 +8,15 @@ namespace RankFreq.Cli;
 /// <summary>Parses arguments, builds settings, calls one library entry point and maps the outcome to an exit code.</summary>
 public static class CliApp
 {
-    /// <summary>Exit codes: 0 ok, 1 error, 2 usage.</summary>
-    public const int Ok = 0, Error = 1, Usage = 2;
+    /// <summary>Exit codes: 0 ok, 1 error in the input or environment, 2 usage, 70 internal error (a bug), 130 interrupted.</summary>
+    public const int Ok = 0, Error = 1, Usage = 2, Internal = 70, Interrupted = 130;
 
     /// <summary>Runs the command line; output goes to the given writers.</summary>
     public static async Task<int> RunAsync(string[] args, TextWriter stdout, TextWriter stderr)
     {
         var root = Build(stdout, stderr);
         var parsed = root.Parse(args);
+        Verbose = parsed.GetValue(VerboseOption);
         if (parsed.Errors.Count > 0)
         {
             foreach (var e in parsed.Errors) stderr.WriteLine($"rankfreq: {e.Message}");
@@ -30,6 +29,11 @@ public static class CliApp
         }
         catch (IOException e) when (IsBrokenPipe(e)) { return Ok; }
     }
+
+    private static readonly Option<bool> VerboseOption = new("--verbose")
+    {
+        Description = "On an internal error, print its full detail", Recursive = true,
+    };
 
     internal static bool IsBrokenPipe(IOException e) => e.Message.Contains("Broken pipe", StringComparison.OrdinalIgnoreCase) || e.HResult == 32;
 
@@ -47,30 +51,40 @@ public static class CliApp
             return Ok;
         });
         root.Subcommands.Add(tok);
+        root.Options.Add(VerboseOption);
         return root;
     }
 
-    /// <summary>Maps library exceptions to a one-line message and exit code 1.</summary>
+    /// <summary>
+    /// Maps an exception to a message and exit code: bad input or environment (<see cref="RankFreqException"/>) 1,
+    /// usage 2, interruption 130; anything else is a bug: 70 with a one-line "internal error", the detail only
+    /// under <c>--verbose</c>.
+    /// </summary>
     internal static int Fail(TextWriter stderr, Exception e)
     {
         switch (e)
         {
-            case SourceException or TokenizerException or CountingException or StorageException or Fitting.FitInputException:
+            case RankFreqException:
                 stderr.WriteLine($"rankfreq: error: {e.Message}");
                 return Error;
             case OperationCanceledException:
-                stderr.WriteLine("rankfreq: cancelled; no output written");
-                return Error;
+                stderr.WriteLine("rankfreq: interrupted; no output written");
+                return Interrupted;
             case UsageException:
                 stderr.WriteLine($"rankfreq: {e.Message}");
                 return Usage;
             case IOException io when IsBrokenPipe(io):
                 return Ok;
             default:
-                stderr.WriteLine($"rankfreq: internal error: {e.GetType().Name}: {e.Message}");
-                return Error;
+                stderr.WriteLine($"rankfreq: internal error ({e.GetType().Name}); please report it"
+                    + (Verbose ? "" : " (run with --verbose for the detail)"));
+                if (Verbose) stderr.WriteLine(e.ToString());
+                return Internal;
         }
     }
+
+    /// <summary>Set from <c>--verbose</c> before the verb runs.</summary>
+    internal static bool Verbose { get; private set; }
 
     /// <summary>Parses sizes like 512M, 2G, 64K or plain bytes.</summary>
     internal static long ParseSize(string? s, string option)
@@ -92,6 +106,3 @@ public static class CliApp
         return (long)(v * mult);
     }
 }
-
-/// <summary>A usage error found after parsing (exit code 2).</summary>
-internal sealed class UsageException(string message) : Exception(message);

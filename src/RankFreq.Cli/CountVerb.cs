@@ -1,6 +1,6 @@
 using System.CommandLine;
 using RankFreq.Counting;
-using RankFreq.Storage;
+using RankFreq.Jobs;
 
 namespace RankFreq.Cli;
 
@@ -20,11 +20,11 @@ internal static class CountVerb
                 var settings = common.Settings(pr);
                 bool quiet = pr.GetValue(common.Quiet), json = pr.GetValue(common.Json);
                 var progress = new ConsoleProgress(stderr, quiet);
-                using var result = await Task.Run(() => CountEngine.Count(pr.GetValue(common.Inputs)!, settings, progress, ct), ct);
+                var result = await Task.Run(() => CountJob.RunAsync(pr.GetValue(common.Inputs)!, settings, pr.GetValue(output)!,
+                    pr.GetValue(common.RedactBelow), progress, ct), ct);
                 progress.Done();
                 var s = result.Summary;
-                await CountTableFile.WriteAsync(pr.GetValue(output)!, result.Rows, result.HasTokenIds, CountTableMetadata.From(s, pr.GetValue(common.RedactBelow)), ct);
-                foreach (var sk in s.SkippedFiles) stderr.WriteLine($"rankfreq: warning: skipped {sk.Path}: {sk.Reason}");
+                foreach (var w in result.Warnings) stderr.WriteLine($"rankfreq: warning: {w}");
                 if (json) stdout.WriteLine(Reporting.JsonText.Write(SummaryJson(s)));
                 else if (!quiet) WriteSummary(stdout, s, pr.GetValue(output)!);
                 return CliApp.Ok;

@@ -1,5 +1,5 @@
 using System.CommandLine;
-using RankFreq.Storage;
+using RankFreq.Jobs;
 
 namespace RankFreq.Cli;
 
@@ -18,11 +18,12 @@ internal static class MergeVerb
         {
             try
             {
-                var s = await TableMerge.MergeAsync(pr.GetValue(tables)!, pr.GetValue(output)!, CliApp.ParseSize(pr.GetValue(memory), "--memory"), pr.GetValue(temp), ct);
+                var s = await MergeJob.RunAsync(pr.GetValue(tables)!, pr.GetValue(output)!, CliApp.ParseSize(pr.GetValue(memory), "--memory"), pr.GetValue(temp), ct);
+                foreach (var w in s.Warnings) stderr.WriteLine($"rankfreq: warning: {w}");
                 if (pr.GetValue(json))
                     stdout.WriteLine(Reporting.JsonText.Write(new Dictionary<string, object> { ["tables"] = s.Tables, ["tokens"] = s.Tokens, ["types"] = s.Types, ["spilled_runs"] = s.SpilledRuns, ["seconds"] = Math.Round(s.Seconds, 3) }));
                 else if (!pr.GetValue(quiet))
-                    stdout.WriteLine($"  merged {s.Tables} tables: {s.Tokens:N0} tokens, {s.Types:N0} types -> {pr.GetValue(output)}");
+                    stdout.WriteLine($"  merged {Human.Count(s.Tables, "table")}: {s.Tokens:N0} tokens, {s.Types:N0} types -> {pr.GetValue(output)}");
                 return CliApp.Ok;
             }
             catch (Exception e) { return CliApp.Fail(stderr, e); }

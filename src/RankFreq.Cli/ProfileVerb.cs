@@ -1,5 +1,5 @@
 using System.CommandLine;
-using RankFreq.Reporting;
+using RankFreq.Jobs;
 
 namespace RankFreq.Cli;
 
@@ -31,7 +31,7 @@ internal static class ProfileVerb
                 foreach (var w in r.Warnings) stderr.WriteLine($"rankfreq: warning: {w}");
                 if (pr.GetValue(common.Json))
                 {
-                    stdout.WriteLine(File.ReadAllText(r.SummaryPath));
+                    stdout.WriteLine(r.SummaryJson);
                     return CliApp.Ok;
                 }
                 if (quiet) return CliApp.Ok;

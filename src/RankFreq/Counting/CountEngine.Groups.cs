@@ -50,10 +50,10 @@ public static partial class CountEngine
     /// separately at the end. A grouped count equals counting each group on its own. Observed growth is not kept per
     /// group. Throws as <see cref="Count"/> does.
     /// </summary>
-    public static GroupedCountResult CountGroups(IReadOnlyList<string> inputs, CountSettings settings, GroupKey key,
-        IProgress<CountProgress>? progress = null, CancellationToken ct = default)
+    public static GroupedCountResult CountGroups(ITokenizer tokenizer, IReadOnlyList<InputFile> files, IReadOnlyList<SkippedFile> skipped,
+        CountSettings settings, GroupKey key, IProgress<CountProgress>? progress = null, CancellationToken ct = default)
     {
-        var pass = Run(inputs, settings, key, progress, ct);
+        var pass = Run(tokenizer, files, skipped, settings, key, progress, ct);
         var parts = pass.Workers.SelectMany(w => w.Groups!.Values).GroupBy(p => p.Label, StringComparer.Ordinal)
             .OrderBy(g => g.Key, StringComparer.Ordinal).ToList();
         var groups = new List<CountGroup>();
@@ -61,7 +61,7 @@ public static partial class CountEngine
         try
         {
             long tokens = pass.UnitTokens.Sum();
-            if (tokens == 0) throw NoTokens(inputs, pass.Skipped);
+            if (tokens == 0) throw NoTokens(files, skipped);
             foreach (var g in parts)
             {
                 ct.ThrowIfCancellationRequested();

@@ -1,6 +1,7 @@
 using System.Runtime.CompilerServices;
 using System.Diagnostics;
 using System.Text;
+using RankFreq.Primitives;
 using RankFreq.Sources;
 using RankFreq.Tokenization;
 
@@ -13,16 +14,21 @@ namespace RankFreq.Counting;
 /// </summary>
 public static partial class CountEngine
 {
-    /// <summary>Counts <paramref name="inputs"/> (files, folders, "-"). Throws <see cref="SourceException"/>,
-    /// <see cref="TokenizerException"/> or <see cref="CountingException"/> with a message naming the cause.</summary>
-    public static CountResult Count(IReadOnlyList<string> inputs, CountSettings settings, IProgress<CountProgress>? progress = null, CancellationToken ct = default)
+    /// <summary>
+    /// Counts <paramref name="files"/> (already expanded and, for a shard, selected; see the count job) with
+    /// <paramref name="tokenizer"/>. Throws <see cref="SourceException"/>, <see cref="TokenizerException"/> or
+    /// <see cref="CountingException"/> with a message naming the cause; on any failure or cancellation every spill
+    /// run is removed before the exception leaves.
+    /// </summary>
+    public static CountResult Count(ITokenizer tokenizer, IReadOnlyList<InputFile> files, IReadOnlyList<SkippedFile> skipped,
+        CountSettings settings, IProgress<CountProgress>? progress = null, CancellationToken ct = default)
     {
-        var pass = Run(inputs, settings, null, progress, ct);
+        var pass = Run(tokenizer, files, skipped, settings, null, progress, ct);
         bool handedOver = false;
         try
         {
             long tokens = pass.UnitTokens.Sum();
-            if (tokens == 0) throw NoTokens(inputs, pass.Skipped);
+            if (tokens == 0) throw NoTokens(files, skipped);
             var unitStart = new long[pass.Units.Count];
             for (int i = 1; i < pass.Units.Count; i++) unitStart[i] = unitStart[i - 1] + pass.UnitTokens[i - 1];
             var checkpoints = GrowthCurve.Checkpoints(tokens);
@@ -43,8 +49,9 @@ public static partial class CountEngine
         }
     }
 
-    private static CountingException NoTokens(IReadOnlyList<string> inputs, IReadOnlyList<SkippedFile> skipped) =>
-        new($"no tokens found in {string.Join(", ", inputs)}" + (skipped.Count > 0 ? $" ({skipped.Count} file(s) skipped as binary)" : ""));
+    private static CountingException NoTokens(IReadOnlyList<InputFile> files, IReadOnlyList<SkippedFile> skipped) =>
+        new($"no tokens found in {string.Join(", ", files.Select(f => f.Path))}"
+            + (skipped.Count > 0 ? $" ({skipped.Count} file(s) skipped as binary)" : ""));
 
     /// <summary>What one counting pass left: the workers' tables, per-unit token counts and the run's facts.</summary>
     private sealed record Pass(ITokenizer Tokenizer, IReadOnlyList<InputFile> Files, IReadOnlyList<SkippedFile> Skipped, IReadOnlyList<WorkUnit> Units,
@@ -70,19 +77,12 @@ public static partial class CountEngine
     /// The one pass over the inputs shared by plain and grouped counting: tokenizes every work unit into per-worker
     /// tables (per group when <paramref name="groups"/> is given), spilling when over budget.
     /// </summary>
-    private static Pass Run(IReadOnlyList<string> inputs, CountSettings settings, GroupKey? groups, IProgress<CountProgress>? progress, CancellationToken ct)
+    private static Pass Run(ITokenizer tokenizer, IReadOnlyList<InputFile> files, IReadOnlyList<SkippedFile> skipped, CountSettings settings,
+        GroupKey? groups, IProgress<CountProgress>? progress, CancellationToken ct)
     {
         var sw = Stopwatch.StartNew();
-        var tokenizer = TokenizerFactory.Create(settings.Tokenizer);
         var source = settings.Source ?? new SourceOptions();
         if (groups is not null) source = source with { Group = groups };
-        var (files, skipped) = InputPlanner.Expand(inputs, source);
-        if (settings.ShardCount > 0)
-        {
-            if (settings.ShardIndex < 1 || settings.ShardIndex > settings.ShardCount)
-                throw new CountingException($"shard {settings.ShardIndex}/{settings.ShardCount}: K must be between 1 and N");
-            files = files.Where((_, i) => i % settings.ShardCount == settings.ShardIndex - 1).ToList();
-        }
         int threads = settings.EffectiveThreads;
         // more ranges than threads, handed out one at a time, so a slow range does not leave a core idle at the end
         var units = InputPlanner.Plan(files, tokenizer.RangeCut, threads > 1 ? threads * 8 : 1, settings.SplitAboveBytes);
@@ -257,13 +257,13 @@ public static partial class CountEngine
 
         public void AddToken(ReadOnlySpan<byte> utf8)
         {
-            Table.Add(utf8, 1, TokenTable.PackPosition(_unit, _pos));
+            Table.Add(utf8, 1, KeyPacking.PackPosition(_unit, _pos));
             if ((++_pos & 0xFFFF) == 0) CheckMemory();
         }
 
         public void AddPackedTokens(ReadOnlySpan<PackedToken> tokens)
         {
-            Table.AddPacked(tokens, TokenTable.PackPosition(_unit, _pos));
+            Table.AddPacked(tokens, KeyPacking.PackPosition(_unit, _pos));
             long before = _pos;
             _pos += tokens.Length;
             // memory is looked at every 65,536 tokens, as in AddToken: a run per batch would flood the spill folder
@@ -277,40 +277,9 @@ public static partial class CountEngine
             long[] counts = IdCounts!;
             foreach (int id in ids)
             {
-                if (counts[id]++ == 0) IdFirst![id] = TokenTable.PackPosition(_unit, _pos);
+                if (counts[id]++ == 0) IdFirst![id] = KeyPacking.PackPosition(_unit, _pos);
                 _pos++;
             }
         }
-    }
-}
-
-/// <summary>Counts types by the growth checkpoint at which each was first seen.</summary>
-internal sealed class GrowthHistogram(long[] checkpoints, long[]? unitStart)
-{
-    private readonly long[] _hist = new long[checkpoints.Length + 1];
-
-    /// <summary>Records a type first seen at packed position <paramref name="first"/>.</summary>
-    public void Add(long first)
-    {
-        if (unitStart is null || first == long.MaxValue) return;
-        long global = unitStart[(int)(first >> 40)] + (first & ((1L << 40) - 1));
-        // first checkpoint c with checkpoints[c] > global: the type is counted from there on
-        int lo = 0, hi = checkpoints.Length;
-        while (lo < hi)
-        {
-            int mid = (lo + hi) >>> 1;
-            if (checkpoints[mid] > global) hi = mid;
-            else lo = mid + 1;
-        }
-        _hist[lo]++;
-    }
-
-    public GrowthCurve ToCurve()
-    {
-        if (unitStart is null) return new GrowthCurve([], []);
-        var types = new long[checkpoints.Length];
-        long run = 0;
-        for (int c = 0; c < checkpoints.Length; c++) { run += _hist[c]; types[c] = run; }
-        return new GrowthCurve(checkpoints, types);
     }
 }

@@ -4,6 +4,7 @@ using System.Runtime.InteropServices;
 using System.Buffers.Binary;
 using System.Runtime.Intrinsics.X86;
 using RankFreq.Tokenization;
+using RankFreq.Primitives;
 
 namespace RankFreq.Counting;
 
@@ -35,7 +36,7 @@ internal sealed class TokenTable
         public int Len;
         public int Id;      // vocabulary id, or -1
         public long Count;  // valid when read through Entries
-        public long First;  // PackPosition(unit, offset)
+        public long First;  // KeyPacking.PackPosition(unit, offset)
     }
 
     private const int PageBytes = 1 << 20;
@@ -73,74 +74,16 @@ internal sealed class TokenTable
         _dirty = false;
     }
 
-    /// <summary>Packs a first-seen position; units sort before offsets.</summary>
-    public static long PackPosition(int unit, long offset) => ((long)unit << 40) | (offset & ((1L << 40) - 1));
-
     /// <summary>The key bytes of an entry.</summary>
     public ReadOnlySpan<byte> Key(in Entry e) => _pages[(int)(e.Ref >> 32)].AsSpan((int)e.Ref, e.Len);
 
-    /// <summary>Bytes 0–7 and 8–15 of a key of at most 16 bytes, little-endian and zero-padded; false for longer keys.</summary>
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    internal static bool ShortWords(ReadOnlySpan<byte> k, out ulong a, out ulong b)
-    {
-        if (k.Length > 16) { a = b = 0; return false; }
-        Pack16(k, out a, out b);
-        return true;
-    }
 
     /// <summary>
-    /// Packs 0–16 bytes into two little-endian words, zero-padded, with overlapping reads inside the span (no copy,
-    /// no read past its end): bytes 8..n come from the last eight shifted down; short keys from two overlapping
-    /// 4- or 2-byte reads whose overlap holds the same bytes.
-    /// </summary>
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    internal static void Pack16(ReadOnlySpan<byte> k, out ulong a, out ulong b)
-    {
-        ref byte r = ref MemoryMarshal.GetReference(k);
-        int n = k.Length;
-        if (n >= 8)
-        {
-            a = Unsafe.ReadUnaligned<ulong>(ref r);
-            b = n == 8 ? 0 : Unsafe.ReadUnaligned<ulong>(ref Unsafe.Add(ref r, n - 8)) >> ((16 - n) * 8);
-        }
-        else if (n >= 4)
-        {
-            a = Unsafe.ReadUnaligned<uint>(ref r) | ((ulong)Unsafe.ReadUnaligned<uint>(ref Unsafe.Add(ref r, n - 4)) << ((n - 4) * 8));
-            b = 0;
-        }
-        else if (n >= 2)
-        {
-            a = Unsafe.ReadUnaligned<ushort>(ref r) | ((ulong)Unsafe.ReadUnaligned<ushort>(ref Unsafe.Add(ref r, n - 2)) << ((n - 2) * 8));
-            b = 0;
-        }
-        else
-        {
-            a = n == 1 ? r : 0UL;
-            b = 0;
-        }
-    }
-
-    /// <summary>wyhash-style mix: the two halves of the 128-bit product of the key words, each xored with a constant.</summary>
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    internal static ulong Mix(ulong a, ulong b, int n)
-    {
-        ulong hi = Math.BigMul(a ^ 0xA0761D6478BD642FUL, b ^ 0xE7037ED1A0B428DBUL ^ (ulong)n, out ulong lo);
-        return hi ^ lo;
-    }
-
-    /// <summary>
-    /// A fast 64-bit hash: <see cref="Mix"/> of the packed words for keys up to 16 bytes, XxHash3 beyond.
-    /// Quality matters only for probe lengths: keys are always compared exactly.
-    /// </summary>
-    internal static ulong Hash(ReadOnlySpan<byte> k) =>
-        ShortWords(k, out ulong a, out ulong b) ? Mix(a, b, k.Length) : XxHash3.HashToUInt64(k);
-
-    /// <summary>
-    /// One occurrence of a key of 1 to 16 bytes given as packed words (see <see cref="ShortWords"/>). The hot path of
+    /// One occurrence of a key of 1 to 16 bytes given as packed words (see <see cref="KeyPacking.ShortWords"/>). The hot path of
     /// counting; <paramref name="first"/> is used only when the key is new.
     /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    public void AddShort(ulong a, ulong b, int len, long first) => AddShortHashed(a, b, len, Mix(a, b, len), first);
+    public void AddShort(ulong a, ulong b, int len, long first) => AddShortHashed(a, b, len, KeyPacking.Mix(a, b, len), first);
 
     /// <summary>
     /// One occurrence of each packed token, in order; token i is new at position <paramref name="first"/> + i. Each
@@ -169,7 +112,7 @@ internal sealed class TokenTable
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     private ulong HashAndPrefetch(in PackedToken t)
     {
-        ulong h = Mix(t.Lo, t.Hi, t.Length);
+        ulong h = KeyPacking.Mix(t.Lo, t.Hi, t.Length);
         if (Sse.IsSupported)
         {
             Slot[] slots = _slots;
@@ -212,8 +155,8 @@ internal sealed class TokenTable
     /// <summary>Adds <paramref name="count"/> occurrences, keeping the earliest first position.</summary>
     public void Add(ReadOnlySpan<byte> key, long count, long first, int id = -1)
     {
-        bool isShort = ShortWords(key, out ulong a, out ulong w);
-        ulong h = isShort ? Mix(a, w, key.Length) : XxHash3.HashToUInt64(key);
+        bool isShort = KeyPacking.ShortWords(key, out ulong a, out ulong w);
+        ulong h = isShort ? KeyPacking.Mix(a, w, key.Length) : XxHash3.HashToUInt64(key);
         Upsert(isShort ? a : h, w, h, key, count, first, id);
     }
 
@@ -285,7 +228,7 @@ internal sealed class TokenTable
         foreach (ref readonly var s in _slots.AsSpan())
         {
             if (s.Entry == 0) continue;
-            ulong h = s.Len <= 16 ? Mix(s.K0, s.K1, s.Len) : s.K0;
+            ulong h = s.Len <= 16 ? KeyPacking.Mix(s.K0, s.K1, s.Len) : s.K0;
             int i = (int)h & mask;
             while (ns[i].Entry != 0) i = (i + 1) & mask;
             ns[i] = s;
@@ -306,7 +249,7 @@ internal sealed class TokenTable
         for (int i = 0; i < keys.Length; i++)
         {
             var k = Key(entries[i]);
-            Pack16(k[..Math.Min(16, k.Length)], out ulong a, out ulong b);
+            KeyPacking.Pack16(k[..Math.Min(16, k.Length)], out ulong a, out ulong b);
             // little-endian packed words byte-reversed: the first byte becomes the most significant
             keys[i] = new SortKey(byCount ? entries[i].Count : 0, BinaryPrimitives.ReverseEndianness(a),
                 BinaryPrimitives.ReverseEndianness(b), k.Length, i);
@@ -415,7 +358,7 @@ internal sealed class TokenTable
         {
             if (o.Entry == 0) continue;
             ref readonly var e = ref other._entries[o.Entry - 1];
-            ulong h = o.Len <= 16 ? Mix(o.K0, o.K1, o.Len) : o.K0;
+            ulong h = o.Len <= 16 ? KeyPacking.Mix(o.K0, o.K1, o.Len) : o.K0;
             Upsert(o.K0, o.K1, h, other.Key(e), o.Count, e.First, e.Id);
         }
     }

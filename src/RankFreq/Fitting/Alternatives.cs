@@ -4,19 +4,6 @@ using MathNet.Numerics.Optimization;
 
 namespace RankFreq.Fitting;
 
-/// <summary>Comparison of the power law with another heavy-tailed family on the same tail x ≥ xmin.</summary>
-/// <param name="Name">lognormal, exponential, stretched_exponential or power_law_cutoff.</param>
-/// <param name="Parameters">Maximum-likelihood parameters of the alternative.</param>
-/// <param name="LogLikelihood">Its log-likelihood on the tail.</param>
-/// <param name="Llr">Σ (ln p_power_law − ln p_alternative): positive favours the power law.</param>
-/// <param name="NormalizedLlr">Vuong's statistic Llr / (σ √n).</param>
-/// <param name="P">Two-sided p-value (Vuong 1989) or, for the nested cut-off, ½·P(χ²₁ &gt; 2|Llr|) (the boundary-corrected LR test).</param>
-/// <param name="Favours">power_law, the alternative's name, or inconclusive when p &gt; 0.1.</param>
-/// <param name="Status">Whether the alternative's fit converged.</param>
-/// <param name="Message">What went wrong, if anything.</param>
-public sealed record AlternativeComparison(string Name, IReadOnlyDictionary<string, double> Parameters, double LogLikelihood,
-    double Llr, double NormalizedLlr, double P, string Favours, FitStatus Status, string Message);
-
 /// <summary>
 /// Alternatives to the power law, each a proper distribution on the integers x ≥ xmin fitted by maximum likelihood
 /// over the tail's spectrum (Clauset et al. 2009, §5 and Table 2 for the continuous forms; discretised here):
@@ -77,8 +64,7 @@ public static class Alternatives
                 if (stat == 0) p = 1;
             }
             else p = sigma > 0 ? SpecialFunctions.Erfc(Math.Abs(norm) / Math.Sqrt(2)) : 1;
-            string favours = p > 0.1 || !double.IsFinite(p) ? "inconclusive" : llr > 0 ? "power_law" : name;
-            if (name == "power_law_cutoff" && favours == "power_law") favours = "inconclusive";
+            string favours = Verdicts.Favours(name, llr, p, nested: name == "power_law_cutoff");
             list.Add(new AlternativeComparison(name, pars, llAlt, llr, norm, p, favours, st, msg));
         }
         return list;

@@ -1,8 +1,5 @@
 namespace RankFreq.Fitting;
 
-/// <summary>Value of ζ(s, q) with its first two derivatives in s.</summary>
-public readonly record struct ZetaValue(double Value, double D1, double D2);
-
 /// <summary>
 /// Hurwitz zeta ζ(s, q) = Σ_{k≥0} (q + k)^−s for s &gt; 1, q &gt; 0, and its first two derivatives in s.
 /// </summary>

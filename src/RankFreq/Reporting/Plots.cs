@@ -5,9 +5,6 @@ using RankFreq.Lexical;
 
 namespace RankFreq.Reporting;
 
-/// <summary>A plot written as SVG (always) and PNG (when a font file was found).</summary>
-public sealed record PlotFile(string Name, string Title, string SvgPath, string? PngPath);
-
 /// <summary>
 /// The profile plots, in RankFreq's own look (ink-blue points, ember fit lines, pale paper background).
 /// Log–log axes are drawn as log10 values with decade labels. PNG needs a font file: one is looked up in the

@@ -40,8 +40,8 @@ public static class ReportHtml
             sb.Append($"α = {F(pl.Alpha)} (standard error {F(pl.AlphaSe)}; the 2009 closed-form approximation gives {F(pl.AlphaApprox)}). ");
             sb.Append($"In rank terms that is Zipf's s = 1/(α − 1) = {F(fit.ZipfS)}. ");
             if (fit.GofReps > 0)
-                sb.Append(fit.GofP < 0.1
-                    ? $"The goodness-of-fit test gives p = {F(fit.GofP)}: synthetic power-law data rarely fit as badly as these, so <strong>a power law is ruled out</strong> for this tail at the usual 0.1 threshold. "
+                sb.Append(Verdicts.RuledOut(fit.GofP)
+                    ? $"The goodness-of-fit test gives p = {F(fit.GofP)}: synthetic power-law data rarely fit as badly as these, so <strong>a power law is ruled out</strong> for this tail at the usual {Verdicts.Level} threshold. "
                     : $"The goodness-of-fit test gives p = {F(fit.GofP)}: <strong>a power law is not ruled out</strong> at this sample size — which is not proof that the data follow one. ");
         }
         else sb.Append(H(pl.Message));
@@ -73,12 +73,8 @@ public static class ReportHtml
         sb.Append("</section>");
 
         sb.Append("<section class=\"caution\"><h2>Reading these results</h2><ul>");
-        sb.Append("<li>A large goodness-of-fit p means the power law is <em>not ruled out</em> at this sample size, not that it is proven; with more data, small departures become detectable.</li>");
-        sb.Append("<li>A good fit says nothing about the mechanism that generated the text.</li>");
-        sb.Append("<li>Exponents and lexical figures depend on sample size: collections of very different sizes are not directly comparable. Compare them at a matched number of tokens.</li>");
-        sb.Append("<li>Lists of rare types from private text can expose personal data (names, addresses, secrets). ");
-        sb.Append(redactBelow > 1 ? $"In this run, token strings with count below {redactBelow} were redacted from counts.parquet.</li>" : "Use <code>--redact-below K</code> to write their strings as null while keeping the counts.</li>");
-        sb.Append("<li>The least-squares slope of the log–log rank plot is shown only for comparison: it is a biased estimator.</li></ul></section>");
+        foreach (var caution in Cautions.For(redactBelow)) sb.Append($"<li>{H(caution)}</li>");
+        sb.Append("</ul></section>");
 
         sb.Append("<section><h2>Settings and inputs</h2><table><tbody>");
         Row(sb, "seed", fit.Seed.ToString(CultureInfo.InvariantCulture)); Row(sb, "goodness-of-fit replicates", N(fit.GofReps)); Row(sb, "uncertainty replicates", N(fit.CiReps));

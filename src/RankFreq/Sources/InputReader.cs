@@ -30,6 +30,7 @@ public static class InputReader
         catch (OperationCanceledException) { throw; }
         catch (UnauthorizedAccessException) { throw new SourceException($"{f.Path}: permission denied"); }
         catch (FileNotFoundException) { throw new SourceException($"{f.Path}: file disappeared while reading"); }
+        catch (IOException e) { throw new SourceException($"{f.Path}: cannot read ({e.Message})", e); }
     }
 
     private static void ReadStream(WorkUnit unit, SourceOptions options, ITextSink sink, SourceStats stats, Action<long>? progress, CancellationToken ct)
@@ -62,7 +63,7 @@ public static class InputReader
                 ct.ThrowIfCancellationRequested();
                 int n;
                 try { n = text.Read(buf, 0, BlockBytes); }
-                catch (Exception e) when (IsDecoderFault(e))
+                catch (DecoderFaultException e)
                 {
                     throw new SourceException($"{f.Path}: corrupt or truncated {f.Compression.ToString().ToLowerInvariant()} data near byte {start + counted.BytesRead} ({e.Message})", e);
                 }
@@ -108,11 +109,6 @@ public static class InputReader
         if (!GzipMembers.LastMemberVerifies(f.Path))
             throw new SourceException($"{f.Path}: truncated or corrupt gzip data (the final CRC-32/size match no complete member; {size} bytes decompressed)");
     }
-
-    private static bool IsDecoderFault(Exception e) =>
-        e is InvalidDataException or ZstdSharp.ZstdException or EndOfStreamException or InvalidOperationException or IndexOutOfRangeException or ArgumentException
-        || e.GetType().Namespace?.StartsWith("SharpCompress", StringComparison.Ordinal) == true
-        || (e is IOException && e is not FileNotFoundException);
 
     private static void ReadParquet(InputFile f, SourceOptions options, ITextSink sink, SourceStats stats, Action<long>? progress, CancellationToken ct)
     {

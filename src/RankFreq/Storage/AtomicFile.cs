@@ -1,8 +1,5 @@
 namespace RankFreq.Storage;
 
-/// <summary>Output that cannot be written.</summary>
-public sealed class StorageException(string message, Exception? inner = null) : Exception(message, inner);
-
 /// <summary>
 /// Writes a file through a temporary file in the target folder and renames it into place, so an interrupted
 /// run never leaves a partial file under the final name.

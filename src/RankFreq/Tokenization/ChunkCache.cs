@@ -1,7 +1,7 @@
 using System.IO.Hashing;
 using System.Runtime.CompilerServices;
 using System.Runtime.InteropServices;
-using RankFreq.Counting;
+using RankFreq.Primitives;
 
 namespace RankFreq.Tokenization;
 
@@ -41,8 +41,8 @@ internal sealed class ChunkCache(int maxEntries)
         bool isShort = chunk.Length <= 8;
         if (isShort)
         {
-            TokenTable.Pack16(bytes, out k0, out k1);
-            h = TokenTable.Mix(k0, k1, chunk.Length);
+            KeyPacking.Pack16(bytes, out k0, out k1);
+            h = KeyPacking.Mix(k0, k1, chunk.Length);
         }
         else
         {
@@ -88,7 +88,7 @@ internal sealed class ChunkCache(int maxEntries)
         s.IdLen = ids.Count;
         if (chunk.Length <= 8)
         {
-            TokenTable.Pack16(MemoryMarshal.AsBytes(chunk), out s.K0, out s.K1);
+            KeyPacking.Pack16(MemoryMarshal.AsBytes(chunk), out s.K0, out s.K1);
         }
         else
         {
@@ -107,12 +107,12 @@ internal sealed class ChunkCache(int maxEntries)
     private void Grow()
     {
         var ns = new Slot[_slots.Length * 2];
-        ns.AsSpan().Clear(); // write fresh pages before probing them (see TokenTable.Rehash)
+        ns.AsSpan().Clear(); // write fresh pages before probing them (as the count table does when it grows)
         int mask = ns.Length - 1;
         foreach (ref readonly var s in _slots.AsSpan())
         {
             if (s.Len == 0) continue;
-            ulong h = s.Len <= 8 ? TokenTable.Mix(s.K0, s.K1, s.Len) : s.K0;
+            ulong h = s.Len <= 8 ? KeyPacking.Mix(s.K0, s.K1, s.Len) : s.K0;
             int i = (int)h & mask;
             while (ns[i].Len != 0) i = (i + 1) & mask;
             ns[i] = s;

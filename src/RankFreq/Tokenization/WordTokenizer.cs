@@ -1,5 +1,6 @@
 using System.Buffers;
 using System.Runtime.CompilerServices;
+using RankFreq.Primitives;
 using System.Runtime.InteropServices;
 using System.Globalization;
 using System.Text;

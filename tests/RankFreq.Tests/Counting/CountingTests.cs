@@ -2,6 +2,8 @@ using System.Text.RegularExpressions;
 using RankFreq.Counting;
 using RankFreq.Storage;
 using Xunit;
+using RankFreq.Primitives;
+using RankFreq.Jobs;
 
 namespace RankFreq.Tests.Counting;
 
@@ -23,7 +25,7 @@ public class CountingTests
             var w = m.Value.ToLowerInvariant();
             expected[w] = expected.GetValueOrDefault(w) + 1;
         }
-        using var r = CountEngine.Count([path], new CountSettings(Threads: 2, SplitAboveBytes: 1 << 20)); // also exercises range splitting
+        using var r = CountJob.Count([path], new CountSettings(Threads: 2, SplitAboveBytes: 1 << 20)); // also exercises range splitting
         var got = Rows(r.Rows).ToDictionary(p => p.Token!, p => p.Count);
         Assert.Equal(expected.Count, got.Count);
         Assert.Equal(expected.Values.Sum(), r.Summary.Tokens);
@@ -34,10 +36,10 @@ public class CountingTests
     public void RangesThreadsAndSpillGiveTheSameTable()
     {
         var path = Corpora.File("kjv-bible.txt");
-        using var one = CountEngine.Count([path], new CountSettings(Threads: 1));
-        using var split = CountEngine.Count([path], new CountSettings(Threads: 2, SplitAboveBytes: 256 << 10));
+        using var one = CountJob.Count([path], new CountSettings(Threads: 1));
+        using var split = CountJob.Count([path], new CountSettings(Threads: 2, SplitAboveBytes: 256 << 10));
         using var d = new TempDir();
-        using var spilled = CountEngine.Count([path], new CountSettings(Threads: 2, MemoryBytes: 1 << 20, TempDirectory: d.Path));
+        using var spilled = CountJob.Count([path], new CountSettings(Threads: 2, MemoryBytes: 1 << 20, TempDirectory: d.Path));
         Assert.True(spilled.Summary.SpilledRuns > 2, "the tiny budget should have spilled");
         var a = Rows(one.Rows);
         Assert.Equal(a, Rows(split.Rows));
@@ -68,7 +70,7 @@ public class CountingTests
         foreach (var k in keys)
             if (k.Length <= 16)
             {
-                TokenTable.ShortWords(k, out ulong a, out ulong b);
+                KeyPacking.ShortWords(k, out ulong a, out ulong b);
                 t.AddShort(a, b, k.Length, 99);
             }
             else t.Add(k, 1, 99);
@@ -95,7 +97,7 @@ public class CountingTests
                 var k = buf.AsSpan(4, n); // bytes on both sides must not leak in
                 var pad = new byte[16];
                 k.CopyTo(pad);
-                TokenTable.Pack16(k, out ulong a, out ulong b);
+                KeyPacking.Pack16(k, out ulong a, out ulong b);
                 Assert.Equal(BitConverter.ToUInt64(pad, 0), a);
                 Assert.Equal(BitConverter.ToUInt64(pad, 8), b);
             }
@@ -159,7 +161,7 @@ public class CountingTests
         using var d = new TempDir();
         File.WriteAllText(d["a.txt"], "x y x z");
         File.WriteAllText(d["b.txt"], "y w");
-        using var r = CountEngine.Count([d.Path], new CountSettings(Threads: 2));
+        using var r = CountJob.Count([d.Path], new CountSettings(Threads: 2));
         var g = r.Growth.Tokens.Zip(r.Growth.Types).ToDictionary(p => p.First, p => p.Second);
         Assert.Equal(1, g[1]); Assert.Equal(2, g[2]); Assert.Equal(3, g[4]); Assert.Equal(4, g[6]);
     }
@@ -175,7 +177,7 @@ public class CountingTests
         var inputs = Enumerable.Range(0, 6).Select(f => d[$"in{f}.txt"]).ToArray();
         async Task<string> CountTo(string name, int k = 0, int n = 0, params string[] files)
         {
-            using var r = CountEngine.Count(files, new CountSettings(ShardIndex: k, ShardCount: n));
+            using var r = CountJob.Count(files, new CountSettings(ShardIndex: k, ShardCount: n));
             var meta = CountTableMetadata.From(r.Summary, 0);
             await CountTableFile.WriteAsync(d[name], r.Rows, false, meta);
             return d[name];
@@ -184,10 +186,10 @@ public class CountingTests
         var s1 = await CountTo("s1.parquet", 1, 3, inputs);
         var s2 = await CountTo("s2.parquet", 2, 3, inputs);
         var s3 = await CountTo("s3.parquet", 3, 3, inputs);
-        await TableMerge.MergeAsync([s1, s2], d["s12.parquet"]);
-        await TableMerge.MergeAsync([d["s12.parquet"], s3], d["left.parquet"]);
-        await TableMerge.MergeAsync([s2, s3], d["s23.parquet"], memoryBytes: 4096, tempDir: d.Path); // spilling merge
-        await TableMerge.MergeAsync([s1, d["s23.parquet"]], d["right.parquet"]);
+        await MergeJob.RunAsync([s1, s2], d["s12.parquet"]);
+        await MergeJob.RunAsync([d["s12.parquet"], s3], d["left.parquet"]);
+        await MergeJob.RunAsync([s2, s3], d["s23.parquet"], memoryBytes: 4096, tempDir: d.Path); // spilling merge
+        await MergeJob.RunAsync([s1, d["s23.parquet"]], d["right.parquet"]);
         async Task<List<(string?, long)>> Read(string p) { await using var r = await CountTableFile.OpenAsync(p); return Rows(r); }
         var w = await Read(whole);
         Assert.Equal(w, await Read(d["left.parquet"]));
@@ -201,11 +203,11 @@ public class CountingTests
         File.WriteAllText(d["a.txt"], "Alpha beta");
         foreach (var (name, tok) in new[] { ("w.parquet", "words"), ("k.parquet", "words:keep-case") })
         {
-            using var r = CountEngine.Count([d["a.txt"]], new CountSettings(tok));
+            using var r = CountJob.Count([d["a.txt"]], new CountSettings(tok));
             var s = r.Summary;
             await CountTableFile.WriteAsync(d[name], r.Rows, false, CountTableMetadata.From(s, 0));
         }
-        var e = await Assert.ThrowsAsync<StorageException>(() => TableMerge.MergeAsync([d["w.parquet"], d["k.parquet"]], d["m.parquet"]));
+        var e = await Assert.ThrowsAsync<StorageException>(() => MergeJob.RunAsync([d["w.parquet"], d["k.parquet"]], d["m.parquet"]));
         Assert.Contains("k.parquet", e.Message);
         Assert.False(File.Exists(d["m.parquet"]));
     }
@@ -214,7 +216,7 @@ public class CountingTests
     public async Task RedactionKeepsTheSpectrumAndHidesRareStrings()
     {
         using var d = new TempDir();
-        using var r = CountEngine.Count([Corpora.File("kjv-bible.txt")], new CountSettings());
+        using var r = CountJob.Count([Corpora.File("kjv-bible.txt")], new CountSettings());
         var s = r.Summary;
         await CountTableFile.WriteAsync(d["red.parquet"], r.Rows, false, CountTableMetadata.From(s, 5));
         await using var t = await CountTableFile.OpenAsync(d["red.parquet"]);

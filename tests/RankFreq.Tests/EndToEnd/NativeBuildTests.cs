@@ -3,6 +3,7 @@ using System.Text.Json;
 using RankFreq.Counting;
 using RankFreq.Storage;
 using Xunit;
+using RankFreq.Jobs;
 
 namespace RankFreq.Tests.EndToEnd;
 
@@ -38,7 +39,7 @@ public class NativeBuildTests
         // count: same totals as the library in process
         var (code, o, e) = Run(exe, "count", demo, "-o", d["w.parquet"], "--json");
         Assert.True(code == 0, e);
-        using var r = CountEngine.Count([demo], new CountSettings());
+        using var r = CountJob.Count([demo], new CountSettings());
         using (var j = JsonDocument.Parse(o))
         {
             Assert.Equal(r.Summary.Tokens, j.RootElement.GetProperty("tokens").GetInt64());
@@ -50,7 +51,7 @@ public class NativeBuildTests
         // a subword vocabulary loaded by assembly name (kept by the trimmer only if the build roots it)
         (code, o, e) = Run(exe, "count", demo, "-o", d["o.parquet"], "-t", "o200k_base", "--json");
         Assert.True(code == 0, e);
-        using var ro = CountEngine.Count([demo], new CountSettings(Tokenizer: "o200k_base"));
+        using var ro = CountJob.Count([demo], new CountSettings(Tokenizer: "o200k_base"));
         using (var j = JsonDocument.Parse(o)) Assert.Equal(ro.Summary.Tokens, j.RootElement.GetProperty("tokens").GetInt64());
 
         // merge and fit read Parquet through Parquet.Net, which reports trim warnings of its own

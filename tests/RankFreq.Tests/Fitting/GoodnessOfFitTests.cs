@@ -1,6 +1,7 @@
 using RankFreq.Counting;
 using RankFreq.Fitting;
 using Xunit;
+using RankFreq.Jobs;
 
 namespace RankFreq.Tests.Fitting;
 
@@ -82,7 +83,7 @@ public class GoodnessOfFitTests
     public void BibleWordTailsHaveZipfLikeExponents(string file)
     {
         // Zipf's rank exponent near 1 for word frequencies (α near 2) is common practice, no single source.
-        using var r = CountEngine.Count([Corpora.File(file)], new CountSettings());
+        using var r = CountJob.Count([Corpora.File(file)], new CountSettings());
         var f = TailFitter.Fit(r.Spectrum, new FitOptions(Reps: 0, CiReps: 0));
         Assert.Equal(FitStatus.Ok, f.PowerLaw.Status);
         Assert.InRange(f.PowerLaw.Alpha, 1.7, 2.1);

@@ -2,6 +2,7 @@ using System.Numerics;
 using RankFreq.Counting;
 using RankFreq.Lexical;
 using Xunit;
+using RankFreq.Jobs;
 
 namespace RankFreq.Tests.Lexical;
 
@@ -56,7 +57,7 @@ public class LexicalTests
     public void EnglishHeapsExponentIsInTheUsualRange(string file)
     {
         // 0.4–0.7 for English is common practice, no single source.
-        using var r = CountEngine.Count([Corpora.File(file)], new CountSettings());
+        using var r = CountJob.Count([Corpora.File(file)], new CountSettings());
         var g = Lexicon.Growth(r.Spectrum, r.Growth);
         Assert.InRange(g.HeapsBeta, 0.4, 0.7);
         Assert.Equal(r.Spectrum.TypeCount, g.Observed[^1]);

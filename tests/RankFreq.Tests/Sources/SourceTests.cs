@@ -3,6 +3,7 @@ using System.Text;
 using RankFreq.Counting;
 using RankFreq.Sources;
 using Xunit;
+using RankFreq.Jobs;
 
 namespace RankFreq.Tests.Sources;
 
@@ -10,11 +11,11 @@ public class SourceTests
 {
     private const string Sample = "The harbour light, the harbour wall; a gull, two gulls — three gulls!\nNorthwest 5 later.\n";
 
-    private static CountResult Count(params string[] inputs) => CountEngine.Count(inputs, new CountSettings(Threads: 2));
+    private static CountResult Count(params string[] inputs) => CountJob.Count(inputs, new CountSettings(Threads: 2));
 
     // read-ahead (decompressing on a second thread) is normally only for compressed files of 4 MiB and more
     private static CountResult Count(bool readAhead, params string[] inputs) =>
-        CountEngine.Count(inputs, new CountSettings(Threads: 2, Source: new SourceOptions { ReadAheadAboveBytes = readAhead ? 0 : long.MaxValue }));
+        CountJob.Count(inputs, new CountSettings(Threads: 2, Source: new SourceOptions { ReadAheadAboveBytes = readAhead ? 0 : long.MaxValue }));
 
     public static readonly TheoryData<string, bool> Compressions = new()
     {
@@ -113,8 +114,8 @@ public class SourceTests
         File.WriteAllText(d["plain.txt"], a + b);
         var whole = m1.Concat(m2).Concat(empty).ToArray();
         File.WriteAllBytes(d["multi.gz"], whole);
-        using (var plain = CountEngine.Count([d["plain.txt"]], new CountSettings()))
-        using (var multi = CountEngine.Count([d["multi.gz"]], new CountSettings()))
+        using (var plain = CountJob.Count([d["plain.txt"]], new CountSettings()))
+        using (var multi = CountJob.Count([d["multi.gz"]], new CountSettings()))
         using (var ahead = Count(true, d["multi.gz"]))
         {
             Assert.Equal(plain.Summary.Tokens, multi.Summary.Tokens);
@@ -122,7 +123,7 @@ public class SourceTests
             Assert.Equal(plain.Spectrum, ahead.Spectrum);
         }
         File.WriteAllBytes(d["two.gz"], m1.Concat(m2).ToArray());
-        using (var two = CountEngine.Count([d["two.gz"]], new CountSettings())) Assert.True(two.Summary.Tokens > 5000);
+        using (var two = CountJob.Count([d["two.gz"]], new CountSettings())) Assert.True(two.Summary.Tokens > 5000);
 
         // members written by GNU gzip, which records the file name in each header (FNAME), where the tool is present
         File.WriteAllText(d["a.txt"], a);
@@ -133,11 +134,11 @@ public class SourceTests
             var g2 = File.ReadAllBytes(d["b.gz"]);
             Assert.True((g2[3] & 8) != 0, "gzip wrote no file name; the header path is not exercised");
             File.WriteAllBytes(d["gnu.gz"], g1.Concat(g2).ToArray());
-            using (var plain = CountEngine.Count([d["plain.txt"]], new CountSettings()))
-            using (var gnu = CountEngine.Count([d["gnu.gz"]], new CountSettings()))
+            using (var plain = CountJob.Count([d["plain.txt"]], new CountSettings()))
+            using (var gnu = CountJob.Count([d["gnu.gz"]], new CountSettings()))
                 Assert.Equal(plain.Spectrum, gnu.Spectrum);
             File.WriteAllBytes(d["gnu-cut.gz"], g1.Concat(g2).Take(g1.Length + g2.Length / 2).ToArray());
-            Assert.Throws<SourceException>(() => CountEngine.Count([d["gnu-cut.gz"]], new CountSettings()));
+            Assert.Throws<SourceException>(() => CountJob.Count([d["gnu-cut.gz"]], new CountSettings()));
         }
 
         // cut inside the second member, inside the first, and inside the last trailer
@@ -145,7 +146,7 @@ public class SourceTests
         {
             string p = d[$"cut{cut}.gz"];
             File.WriteAllBytes(p, m1.Concat(m2).Take(cut).ToArray());
-            var e = Assert.Throws<SourceException>(() => CountEngine.Count([p], new CountSettings()));
+            var e = Assert.Throws<SourceException>(() => CountJob.Count([p], new CountSettings()));
             Assert.Contains(p, e.Message);
             Assert.Contains(p, Assert.Throws<SourceException>(() => Count(true, p)).Message);
         }
@@ -162,7 +163,7 @@ public class SourceTests
         using (var g = new GZipStream(o, CompressionLevel.Fastest))
         using (var w = new StreamWriter(g))
             for (int i = 0; i < 2500; i++) w.WriteLine("{\"text\":\"" + string.Concat(Enumerable.Repeat("word ", i == 3 ? 40_000 : 1000)) + "\"}"); // ~12 MB: the queue fills
-        var run = Task.Run(() => CountEngine.Count([path], new CountSettings(Threads: 2,
+        var run = Task.Run(() => CountJob.Count([path], new CountSettings(Threads: 2,
             Source: new SourceOptions(MaxRecordBytes: 100_000) { ReadAheadAboveBytes = 0 })));
         var finished = await Task.WhenAny(run, Task.Delay(TimeSpan.FromSeconds(60)));
         Assert.True(finished == run, "the count did not finish");
@@ -178,8 +179,8 @@ public class SourceTests
         var lines = Enumerable.Range(0, 3000).Select(i => $"{{\"id\":{i},\"text\":\"{Sample.Replace("\n", "\\n")} rec{i % 97}\"}}").ToList();
         File.WriteAllLines(path, lines);
         // one reader, and ranges of about 32 KiB handed to two threads: the same counts, records and growth
-        using var whole = CountEngine.Count([path], new CountSettings(Threads: 1));
-        using var split = CountEngine.Count([path], new CountSettings(Threads: 2, SplitAboveBytes: 1 << 17));
+        using var whole = CountJob.Count([path], new CountSettings(Threads: 1));
+        using var split = CountJob.Count([path], new CountSettings(Threads: 2, SplitAboveBytes: 1 << 17));
         Assert.Equal(3000, split.Summary.Records);
         Assert.Equal(Table(whole), Table(split));
         Assert.Equal(whole.Growth.Types, split.Growth.Types);
@@ -188,7 +189,7 @@ public class SourceTests
         lines[2500] = "{\"text\": broken";
         File.WriteAllLines(path, lines);
         var strict = new SourceOptions(Strict: true);
-        var e = Assert.Throws<SourceException>(() => CountEngine.Count([path], new CountSettings(Source: strict, Threads: 2, SplitAboveBytes: 1 << 17)));
+        var e = Assert.Throws<SourceException>(() => CountJob.Count([path], new CountSettings(Source: strict, Threads: 2, SplitAboveBytes: 1 << 17)));
         Assert.Contains(path + ":2501:", e.Message);
     }
 
@@ -205,12 +206,12 @@ public class SourceTests
             "{\"meta\":{\"body\":42}}",
         ]);
         var opts = new SourceOptions(TextField: "meta.body");
-        using var r = CountEngine.Count([d["a.jsonl"]], new CountSettings(Source: opts));
+        using var r = CountJob.Count([d["a.jsonl"]], new CountSettings(Source: opts));
         Assert.Equal(5, r.Summary.Tokens);
         Assert.Equal(3, Table(r)["two"]);
         Assert.Equal(1, r.Summary.MalformedRecords);
         Assert.Equal(2, r.Summary.MissingField);
-        var e = Assert.Throws<SourceException>(() => CountEngine.Count([d["a.jsonl"]], new CountSettings(Source: opts with { Strict = true })));
+        var e = Assert.Throws<SourceException>(() => CountJob.Count([d["a.jsonl"]], new CountSettings(Source: opts with { Strict = true })));
         Assert.Contains("a.jsonl:3", e.Message);
     }
 
@@ -219,7 +220,7 @@ public class SourceTests
     {
         using var d = new TempDir();
         File.WriteAllText(d["big.jsonl"], "{\"text\":\"ok\"}\n{\"text\":\"" + new string('a', 5000) + "\"}\n");
-        var e = Assert.Throws<SourceException>(() => CountEngine.Count([d["big.jsonl"]], new CountSettings(Source: new SourceOptions(MaxRecordBytes: 1000))));
+        var e = Assert.Throws<SourceException>(() => CountJob.Count([d["big.jsonl"]], new CountSettings(Source: new SourceOptions(MaxRecordBytes: 1000))));
         Assert.Contains("big.jsonl:2", e.Message);
     }
 
@@ -234,9 +235,9 @@ public class SourceTests
             using var rg = w.CreateRowGroup();
             await rg.WriteAsync(f, new[] { "red red blue", "green", "blue" });
         }
-        using var r = CountEngine.Count([d["t.parquet"]], new CountSettings(Source: new SourceOptions(TextColumn: "body")));
+        using var r = CountJob.Count([d["t.parquet"]], new CountSettings(Source: new SourceOptions(TextColumn: "body")));
         Assert.Equal(new Dictionary<string, long> { ["red"] = 2, ["blue"] = 2, ["green"] = 1 }, Table(r));
-        Assert.Throws<SourceException>(() => CountEngine.Count([d["t.parquet"]], new CountSettings()));
+        Assert.Throws<SourceException>(() => CountJob.Count([d["t.parquet"]], new CountSettings()));
     }
 
     [Fact]
@@ -245,7 +246,7 @@ public class SourceTests
         using var d = new TempDir();
         File.WriteAllBytes(d["bad.txt"], [0xEF, 0xBB, 0xBF, (byte)'a', (byte)'b', 0xFF, 0xFE, (byte)' ', (byte)'c', 0xC3]);
         File.WriteAllBytes(d["bin.dat"], [1, 2, 0, 3, (byte)'x']);
-        using var r = CountEngine.Count([d.Path], new CountSettings());
+        using var r = CountJob.Count([d.Path], new CountSettings());
         Assert.Equal(3, r.Summary.ReplacedBytes);  // FF, FE and the dangling C3
         Assert.Equal(new Dictionary<string, long> { ["ab"] = 1, ["c"] = 1 }, Table(r));
         Assert.Single(r.Summary.SkippedFiles);
@@ -269,7 +270,7 @@ public class SourceTests
         File.WriteAllText(d["sub/a.txt"], "alpha");
         File.WriteAllText(d["sub/b.md"], "beta");
         File.WriteAllText(d["c.txt"], "gamma");
-        using var r = CountEngine.Count([d.Path], new CountSettings(Source: new SourceOptions(Include: ["**/*.txt"], Exclude: ["sub/**"])));
+        using var r = CountJob.Count([d.Path], new CountSettings(Source: new SourceOptions(Include: ["**/*.txt"], Exclude: ["sub/**"])));
         Assert.Equal(["gamma"], Table(r).Keys);
     }
 }

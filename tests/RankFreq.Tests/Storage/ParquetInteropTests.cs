@@ -1,6 +1,7 @@
 using RankFreq.Counting;
 using RankFreq.Storage;
 using Xunit;
+using RankFreq.Jobs;
 
 namespace RankFreq.Tests.Storage;
 
@@ -12,7 +13,7 @@ public class ParquetInteropTests
         // Independent reader: ParquetSharp (the Apache Arrow C++ Parquet implementation).
         using var d = new TempDir();
         File.WriteAllText(d["a.txt"], string.Join(' ', Enumerable.Range(0, 5000).Select(i => "t" + (i * 7919 % 613))) + " ünïcödé ünïcödé");
-        using var r = CountEngine.Count([d["a.txt"]], new CountSettings());
+        using var r = CountJob.Count([d["a.txt"]], new CountSettings());
         var s = r.Summary;
         await CountTableFile.WriteAsync(d["t.parquet"], r.Rows, false, CountTableMetadata.From(s, 0));
         var mine = (InMemoryRows)r.Rows;

@@ -2,6 +2,7 @@ using System.Text;
 using RankFreq.Counting;
 using RankFreq.Tokenization;
 using Xunit;
+using RankFreq.Jobs;
 
 namespace RankFreq.Tests.Tokenization;
 
@@ -95,8 +96,8 @@ public class SubwordTokenizerTests
     {
         // ranges cut after a newline followed by an ASCII letter (a chunk boundary) must not change any id
         var path = Corpora.File("kjv-bible.txt");
-        using var one = CountEngine.Count([path], new CountSettings("o200k_base", Threads: 1));
-        using var split = CountEngine.Count([path], new CountSettings("o200k_base", Threads: 2, SplitAboveBytes: 256 << 10));
+        using var one = CountJob.Count([path], new CountSettings("o200k_base", Threads: 1));
+        using var split = CountJob.Count([path], new CountSettings("o200k_base", Threads: 2, SplitAboveBytes: 256 << 10));
         var a = (InMemoryRows)one.Rows;
         var b = (InMemoryRows)split.Rows;
         Assert.Equal(a.TokenIds, b.TokenIds);
@@ -108,7 +109,7 @@ public class SubwordTokenizerTests
     public void CountEngineTotalsMatchEncodeToIds()
     {
         var path = Corpora.File("reina-valera-1909.txt");
-        using var r = CountEngine.Count([path], new CountSettings("o200k_base", Threads: 2));
+        using var r = CountJob.Count([path], new CountSettings("o200k_base", Threads: 2));
         var ids = SubwordTokenizer.Tiktoken("o200k_base").EncodeWhole(File.ReadAllText(path));
         Assert.Equal(ids.Count, r.Summary.Tokens);
         Assert.Equal(ids.Distinct().Count(), r.Summary.Types);

@@ -2,6 +2,7 @@ using System.Text;
 using FsCheck;
 using FsCheck.Fluent;
 using RankFreq.Tokenization;
+using RankFreq.Primitives;
 using Xunit;
 
 namespace RankFreq.Tests.Tokenization;

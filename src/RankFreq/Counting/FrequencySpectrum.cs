@@ -1,0 +1,37 @@
+using RankFreq.Sources;
+
+namespace RankFreq.Counting;
+
+/// <summary>
+/// The frequency spectrum: <c>Types[i]</c> types occur exactly <c>Values[i]</c> times; values strictly increasing.
+/// Every statistic downstream works on these (value, multiplicity) pairs, never one value per type.
+/// </summary>
+public sealed record FrequencySpectrum(long[] Values, long[] Types)
+{
+    /// <summary>Number of types (Σ multiplicities).</summary>
+    public long TypeCount { get; } = Types.Sum();
+
+    /// <summary>Number of tokens (Σ value × multiplicity).</summary>
+    public long TokenCount { get; } = Values.Zip(Types, (v, m) => v * m).Sum();
+
+    /// <summary>Builds a spectrum from (value, multiplicity) pairs in any order; equal values are added up.</summary>
+    public static FrequencySpectrum FromPairs(IEnumerable<(long Value, long Types)> pairs)
+    {
+        var d = new SortedDictionary<long, long>();
+        foreach (var (v, m) in pairs)
+        {
+            if (m == 0) continue;
+            d[v] = d.TryGetValue(v, out var x) ? x + m : m;
+        }
+        return new FrequencySpectrum(d.Keys.ToArray(), d.Values.ToArray());
+    }
+
+    /// <summary>Equal when the (value, multiplicity) pairs are equal.</summary>
+    public bool Equals(FrequencySpectrum? other) => other is not null && Values.AsSpan().SequenceEqual(other.Values) && Types.AsSpan().SequenceEqual(other.Types);
+
+    /// <inheritdoc/>
+    public override int GetHashCode() => HashCode.Combine(Values.Length, TypeCount, TokenCount);
+
+    /// <summary>Builds a spectrum from one count per type.</summary>
+    public static FrequencySpectrum FromCounts(IEnumerable<long> counts) => FromPairs(counts.Select(c => (c, 1L)));
+}

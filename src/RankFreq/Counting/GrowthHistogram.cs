@@ -1,0 +1,39 @@
+using System.Runtime.CompilerServices;
+using System.Diagnostics;
+using System.Text;
+using RankFreq.Sources;
+using RankFreq.Tokenization;
+using RankFreq.Primitives;
+
+namespace RankFreq.Counting;
+
+/// <summary>Counts types by the growth checkpoint at which each was first seen.</summary>
+internal sealed class GrowthHistogram(long[] checkpoints, long[]? unitStart)
+{
+    private readonly long[] _hist = new long[checkpoints.Length + 1];
+
+    /// <summary>Records a type first seen at packed position <paramref name="first"/>.</summary>
+    public void Add(long first)
+    {
+        if (unitStart is null || first == long.MaxValue) return;
+        long global = unitStart[(int)(first >> 40)] + (first & ((1L << 40) - 1));
+        // first checkpoint c with checkpoints[c] > global: the type is counted from there on
+        int lo = 0, hi = checkpoints.Length;
+        while (lo < hi)
+        {
+            int mid = (lo + hi) >>> 1;
+            if (checkpoints[mid] > global) hi = mid;
+            else lo = mid + 1;
+        }
+        _hist[lo]++;
+    }
+
+    public GrowthCurve ToCurve()
+    {
+        if (unitStart is null) return new GrowthCurve([], []);
+        var types = new long[checkpoints.Length];
+        long run = 0;
+        for (int c = 0; c < checkpoints.Length; c++) { run += _hist[c]; types[c] = run; }
+        return new GrowthCurve(checkpoints, types);
+    }
+}

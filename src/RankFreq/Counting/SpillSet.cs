@@ -1,0 +1,59 @@
+using System.Text;
+
+namespace RankFreq.Counting;
+
+/// <summary>Temporary folder of spill runs, removed on dispose (success, failure or cancellation).</summary>
+internal sealed class SpillSet(string? root) : IDisposable
+{
+    private readonly object _gate = new();
+    private string? _dir;
+    private int _next;
+    public List<string> Phase1 { get; } = [];
+    public int Runs { get { lock (_gate) return _next; } }
+
+    public string NewPath()
+    {
+        lock (_gate)
+        {
+            if (_dir is null)
+            {
+                string baseDir = root ?? Path.GetTempPath();
+                _dir = Path.Combine(baseDir, $"rankfreq-spill-{Environment.ProcessId}-{Guid.NewGuid():N}");
+                try { Directory.CreateDirectory(_dir); }
+                catch (Exception e) { throw new CountingException($"{baseDir}: cannot create a temporary folder for spill runs ({e.Message})", e); }
+            }
+            return Path.Combine(_dir, $"run-{_next++:D5}.bin");
+        }
+    }
+
+    /// <summary>Writes a table as a key-sorted run and clears it.</summary>
+    public void Spill(TokenTable table)
+    {
+        if (table.Count == 0) return;
+        string path = NewPath();
+        try
+        {
+            using (var w = new RunWriter(path))
+                foreach (int i in table.IndicesByKey())
+                {
+                    var e = table.Entries[i];
+                    w.Write(table.Key(e), e.Count, e.First, e.Id);
+                }
+        }
+        catch (IOException e) { throw new CountingException($"{path}: cannot write a spill run ({e.Message}); free disk space or set a larger --memory", e); }
+        lock (_gate) Phase1.Add(path);
+        table.Clear();
+    }
+
+    public void Dispose()
+    {
+        lock (_gate)
+        {
+            if (_dir is not null && Directory.Exists(_dir))
+            {
+                try { Directory.Delete(_dir, recursive: true); } catch (IOException) { } catch (UnauthorizedAccessException) { }
+            }
+            _dir = null;
+        }
+    }
+}

@@ -1,0 +1,65 @@
+using RankFreq.Counting;
+using RankFreq.Fitting;
+using RankFreq.Lexical;
+using RankFreq.Reporting;
+using RankFreq.Storage;
+
+namespace RankFreq.Jobs;
+
+/// <summary>The main job: count, fit, compare, vocabulary growth and richness, plots, report.</summary>
+public static class ProfileJob
+{
+    /// <summary>Runs the profile; every file is written atomically, and nothing is written before counting succeeds.</summary>
+    public static async Task<ProfileResult> RunAsync(IReadOnlyList<string> inputs, ProfileSettings s, IProgress<CountProgress>? countProgress = null,
+        IProgress<FitProgress>? fitProgress = null, CancellationToken ct = default)
+    {
+        using var counted = CountJob.Count(inputs, s.Count, countProgress, ct);
+        var warnings = CountJob.Warnings(counted.Summary);
+        var fit = TailFitter.Fit(counted.Spectrum, s.Fit, fitProgress, ct);
+        var lex = Lexicon.Summarize(counted.Spectrum);
+        var growth = Lexicon.Growth(counted.Spectrum, counted.Growth);
+
+        string dir = s.OutputDirectory;
+        try { Directory.CreateDirectory(dir); }
+        catch (Exception e) when (e is IOException or UnauthorizedAccessException) { throw new StorageException($"{dir}: cannot create the output folder ({e.Message})", e); }
+
+        var sum = counted.Summary;
+        var meta = CountTableMetadata.From(sum, s.RedactBelow);
+        await CountTableFile.WriteAsync(Path.Combine(dir, "counts.parquet"), counted.Rows, counted.HasTokenIds, meta, ct);
+        await TableFiles.WriteSpectrumAsync(Path.Combine(dir, "spectrum.parquet"), counted.Spectrum, ct);
+        await FitTableFile.WriteAsync(Path.Combine(dir, "fit.parquet"), [("all", fit)], ct);
+        await TableFiles.WriteGrowthAsync(Path.Combine(dir, "growth.parquet"), growth, ct);
+
+        var plots = new List<PlotFile>
+        {
+            Plots.RankFrequency(counted.Spectrum, fit, dir),
+            Plots.Ccdf(counted.Spectrum, fit, dir),
+            Plots.Spectrum(counted.Spectrum, dir),
+            Plots.Growth(growth, dir),
+        };
+        if (Plots.Font is null)
+            warnings.Add("no font file found (looked in the fontconfig folders), so PNG plots were skipped; install a font (Debian: fonts-dejavu-core) to get them. SVG plots and the report are complete.");
+
+        var summary = new Dictionary<string, object?>();
+        foreach (var kv in SummaryFields.Count(sum)) summary[kv.Key] = kv.Value;
+        foreach (var kv in SummaryFields.Fit(fit)) summary[kv.Key] = kv.Value;
+        foreach (var kv in SummaryFields.Lexical(lex, growth)) summary[kv.Key] = kv.Value;
+        summary["settings"] = new Dictionary<string, object?>
+        {
+            ["tokenizer"] = s.Count.Tokenizer, ["format"] = (s.Count.Source ?? new()).Format.ToString().ToLowerInvariant(),
+            ["text_field"] = (s.Count.Source ?? new()).TextField, ["min_tail"] = s.Fit.MinTail, ["xmin"] = s.Fit.Xmin > 0 ? s.Fit.Xmin : null,
+            ["reps"] = s.Fit.Reps, ["ci_reps"] = s.Fit.CiReps, ["threads"] = s.Fit.EffectiveThreads, ["redact_below"] = s.RedactBelow,
+        };
+        summary["inputs"] = sum.Inputs.Select(i => new Dictionary<string, object> { ["path"] = i.Path, ["bytes"] = i.Bytes }).ToList();
+        summary["version"] = CountTableMetadata.CurrentVersion;
+        summary["cautions"] = Cautions.For(s.RedactBelow);
+        string summaryPath = Path.Combine(dir, "summary.json");
+        string summaryJson = JsonText.Write(summary);
+        await AtomicFile.WriteTextAsync(summaryPath, summaryJson);
+
+        string title = s.Title ?? (inputs.Count == 1 ? Path.GetFileName(Path.TrimEndingDirectorySeparator(Path.GetFullPath(inputs[0]))) : $"{inputs.Count} inputs");
+        string reportPath = Path.Combine(dir, "report.html");
+        await AtomicFile.WriteTextAsync(reportPath, ReportHtml.Build(title, sum, fit, lex, growth, plots, s.RedactBelow));
+        return new ProfileResult(sum, fit, lex, growth, plots, reportPath, summaryPath, summaryJson, warnings);
+    }
+}

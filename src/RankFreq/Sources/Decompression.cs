@@ -1,0 +1,42 @@
+using System.IO.Compression;
+using SharpCompress.Compressors;
+using SharpCompress.Compressors.BZip2;
+using SharpCompress.Compressors.Xz;
+using ZstdSharp;
+
+namespace RankFreq.Sources;
+
+/// <summary>Detects compression by content and opens a decompressing stream.</summary>
+public static class Decompression
+{
+    /// <summary>Recognises a compression format from the first bytes of a stream.</summary>
+    public static CompressionKind Detect(ReadOnlySpan<byte> head)
+    {
+        if (head.Length >= 2 && head[0] == 0x1F && head[1] == 0x8B) return CompressionKind.Gzip;
+        if (head.Length >= 4 && head[0] == 0x28 && head[1] == 0xB5 && head[2] == 0x2F && head[3] == 0xFD) return CompressionKind.Zstd;
+        if (head.Length >= 4 && head[0] == (byte)'B' && head[1] == (byte)'Z' && head[2] == (byte)'h' && head[3] is >= (byte)'1' and <= (byte)'9') return CompressionKind.Bzip2;
+        if (head.Length >= 6 && head[0] == 0xFD && head[1] == 0x37 && head[2] == 0x7A && head[3] == 0x58 && head[4] == 0x5A && head[5] == 0) return CompressionKind.Xz;
+        return CompressionKind.None;
+    }
+
+    /// <summary>Wraps <paramref name="raw"/> in the decompressor for <paramref name="kind"/>; its faults surface as
+    /// <see cref="DecoderFaultException"/>.</summary>
+    public static Stream Open(Stream raw, CompressionKind kind) => kind switch
+    {
+        CompressionKind.None => raw,
+        CompressionKind.Gzip => new DecoderGuardStream(new GZipStream(raw, System.IO.Compression.CompressionMode.Decompress)),
+        CompressionKind.Zstd => new DecoderGuardStream(new DecompressionStream(raw)),
+        CompressionKind.Bzip2 => new DecoderGuardStream(BZip2Stream.Create(raw, SharpCompress.Compressors.CompressionMode.Decompress,
+            decompressConcatenated: true, leaveOpen: false)),
+        CompressionKind.Xz => new DecoderGuardStream(new XZStream(raw)),
+        _ => raw,
+    };
+
+    /// <summary>File name extensions that mark compression, stripped before guessing the format.</summary>
+    public static string StripExtension(string name)
+    {
+        foreach (var ext in new[] { ".gz", ".zst", ".zstd", ".bz2", ".xz" })
+            if (name.EndsWith(ext, StringComparison.OrdinalIgnoreCase)) return name[..^ext.Length];
+        return name;
+    }
+}
