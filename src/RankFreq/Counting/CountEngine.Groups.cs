@@ -44,7 +44,7 @@ internal sealed class GroupPart(string label, SpillSet spill, long[]? idCounts, 
 public static partial class CountEngine
 {
     /// <summary>
-    /// Counts every group of <paramref name="key"/> in one pass over <paramref name="inputs"/>, with the same readers,
+    /// Counts every group of <paramref name="key"/> in one pass over <paramref name="files"/>, with the same readers,
     /// tokenizer sessions, tables and spill path as <see cref="Count"/>: each document's group (from its file, or
     /// from the record as it is extracted) selects the worker's table for that group; the groups' tables are ranked
     /// separately at the end. A grouped count equals counting each group on its own. Observed growth is not kept per

@@ -96,7 +96,7 @@ public class GroupComparisonTests
         File.WriteAllLines(tmp["b.txt"], lines[cut..]);
         var spectra = new[] { "a.txt", "b.txt" }.Select(f =>
         {
-            using var c = CountEngine.Count([tmp[f]], new CountSettings(Threads: 2));
+            using var c = RankFreq.Jobs.CountJob.Count([tmp[f]], new CountSettings(Threads: 2));
             return new GroupSpectrum(f, c.Spectrum);
         }).ToArray();
         var r = GroupComparison.Compare(spectra, Quick with { BootReps = 120 });
