@@ -60,7 +60,7 @@ public static class GroupComparison
             if (fits[g]!.PowerLaw.Status != FitStatus.Ok)
             {
                 status[g] = ContrastStatus.FitFailed;
-                message[g] = $"tail fit failed ({Snake(fits[g]!.PowerLaw.Status)}): {fits[g]!.PowerLaw.Message}";
+                message[g] = $"tail fit failed ({FitStatusNames.Of(fits[g]!.PowerLaw.Status)}): {fits[g]!.PowerLaw.Message}";
             }
         }
         var fitted = Enumerable.Range(0, k).Where(g => status[g] == ContrastStatus.Ok).ToArray();
@@ -193,13 +193,4 @@ public static class GroupComparison
         double p = se > 0 && double.IsFinite(diff) ? MathNet.Numerics.SpecialFunctions.Erfc(Math.Abs(diff) / se / Math.Sqrt(2)) : double.NaN;
         return new AlphaDifference(diff, sd.Lo, sd.Hi, se, p, double.NaN, false, 2.80 * se);
     }
-
-    internal static string Snake(FitStatus s) => s switch
-    {
-        FitStatus.Ok => "ok",
-        FitStatus.TooFewPoints => "too_few_points",
-        FitStatus.AllEqual => "all_equal",
-        FitStatus.Boundary => "boundary",
-        _ => "not_converged",
-    };
 }

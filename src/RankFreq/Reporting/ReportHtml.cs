@@ -8,7 +8,7 @@ using RankFreq.Lexical;
 namespace RankFreq.Reporting;
 
 /// <summary>The self-contained HTML report: figures in plain words, tables, alternatives, cautions; plots inlined as SVG; no scripts, no network.</summary>
-public static class ReportHtml
+public static partial class ReportHtml
 {
     private static string F(double x, string fmt = "F3") => double.IsFinite(x) ? x.ToString(fmt, CultureInfo.InvariantCulture) : "–";
     private static string N(long x) => x.ToString("N0", CultureInfo.InvariantCulture);
@@ -63,14 +63,7 @@ public static class ReportHtml
         Row(sb, "Rényi efficiency (order 2.5)", F(lex.RenyiEfficiency, "F3")); Row(sb, "Heaps' law V = K·N^β", $"K = {F(g.HeapsK, "G4")}, β = {F(g.HeapsBeta, "F3")}");
         sb.Append($"</tbody></table><p class=\"note\">Heaps' law: {H(g.HeapsMethod)}.</p></section>");
 
-        sb.Append("<section class=\"plots\">");
-        foreach (var p in plots)
-        {
-            string svg = File.ReadAllText(p.SvgPath);
-            int i = svg.IndexOf("<svg", StringComparison.Ordinal);
-            sb.Append($"<figure>{(i >= 0 ? svg[i..] : svg)}<figcaption>{H(p.Title)}</figcaption></figure>");
-        }
-        sb.Append("</section>");
+        Figures(sb, plots);
 
         sb.Append("<section class=\"caution\"><h2>Reading these results</h2><ul>");
         foreach (var caution in Cautions.For(redactBelow)) sb.Append($"<li>{H(caution)}</li>");
