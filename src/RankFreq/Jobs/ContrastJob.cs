@@ -39,12 +39,7 @@ public static class ContrastJob
     public static async Task<ContrastJobResult> RunAsync(IReadOnlyList<string> inputs, ContrastSettings s, IProgress<CountProgress>? countProgress = null,
         IProgress<ContrastProgress>? progress = null, CancellationToken ct = default)
     {
-        var source = (s.Count.Source ?? new SourceOptions()) with { Group = s.Key };
-        var tokenizer = TokenizerFactory.Create(s.Count.Tokenizer);
-        var (files, skipped) = InputPlanner.Expand(inputs, source);
-        CheckFormats(files, s.Key);
-        using var counted = CountEngine.CountGroups(tokenizer, files, skipped, s.Count with { Source = source }, s.Key, countProgress, ct);
-        CheckKeyFound(counted, files, s.Key);
+        using var counted = CountGroups(inputs, s.Count, s.Key, countProgress, ct);
         var byLabel = counted.Groups.ToDictionary(g => g.Group, StringComparer.Ordinal);
         var ordered = s.Key.Order(byLabel.Keys).Select(l => byLabel[l]).ToList();
         var spectra = ordered.Select(g => new GroupSpectrum(g.Group, g.Spectrum, g.Documents)).ToList();
@@ -62,6 +57,24 @@ public static class ContrastJob
             report = await WriteFolderAsync(dir, inputs, s, counted, ordered, spectra, result, cautions, json, warnings, ct);
         }
         return new ContrastJobResult(counted.Summary, result, counted.BadGroupValues, cautions, json, report, warnings);
+    }
+
+    /// <summary>
+    /// Counts every group of <paramref name="key"/> in one pass over <paramref name="inputs"/> (the counting engine's
+    /// grouped mode). A field key needs JSON Lines input and a column key Parquet; a record key that no record has
+    /// is an error naming the file. The caller disposes the result.
+    /// </summary>
+    public static GroupedCountResult CountGroups(IReadOnlyList<string> inputs, CountSettings count, GroupKey key,
+        IProgress<CountProgress>? progress = null, CancellationToken ct = default)
+    {
+        var source = (count.Source ?? new SourceOptions()) with { Group = key };
+        var tokenizer = TokenizerFactory.Create(count.Tokenizer);
+        var (files, skipped) = InputPlanner.Expand(inputs, source);
+        CheckFormats(files, key);
+        var counted = CountEngine.CountGroups(tokenizer, files, skipped, count with { Source = source }, key, progress, ct);
+        try { CheckKeyFound(counted, files, key); }
+        catch { counted.Dispose(); throw; }
+        return counted;
     }
 
     /// <summary>A field key needs JSON Lines, a column key Parquet: any other input is an error naming it.</summary>

@@ -135,7 +135,7 @@ public static class InputReader
                 using var rg = reader.OpenRowGroupReader(g);
                 var values = new string?[rg.RowCount];
                 rg.ReadAsync(field, values.AsMemory(), null, ct).GetAwaiter().GetResult();
-                var labels = groupField is null ? null : ParquetGroups.Labels(rg, groupField, groupKey!, ct);
+                var labels = groupField is null ? null : ParquetGroups.Labels(f.Path, rg, groupField, groupKey!, ct);
                 for (int i = 0; i < values.Length; i++)
                 {
                     string? v = values[i];

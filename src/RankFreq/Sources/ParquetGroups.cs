@@ -16,7 +16,7 @@ internal static class ParquetGroups
     }
 
     /// <summary>One label per row: null values give <see cref="GroupKey.Missing"/>, values that cannot be binned give null.</summary>
-    public static string?[] Labels(ParquetRowGroupReader rg, DataField f, GroupKey key, CancellationToken ct)
+    public static string?[] Labels(string path, ParquetRowGroupReader rg, DataField f, GroupKey key, CancellationToken ct)
     {
         int n = (int)rg.RowCount;
         string?[] Numbers<T>(Func<T, double> toDouble) where T : struct
@@ -37,7 +37,7 @@ internal static class ParquetGroups
             rg.ReadAsync<bool>(f, b.AsMemory(), null, ct).GetAwaiter().GetResult();
             return b.Select(x => x is { } y ? (y ? "true" : "false") : GroupKey.Missing).ToArray();
         }
-        if (t == typeof(string))
+        if (t == typeof(string) || t == typeof(ReadOnlyMemory<char>))
         {
             var s = new string?[n];
             rg.ReadAsync(f, s.AsMemory(), null, ct).GetAwaiter().GetResult();
@@ -48,6 +48,6 @@ internal static class ParquetGroups
                 return double.TryParse(x, NumberStyles.Float, CultureInfo.InvariantCulture, out var d) && double.IsFinite(d) ? key.LabelOfNumber(d) : null;
             }).ToArray();
         }
-        throw new SourceException($"column '{key.Name}' holds {t.Name}, which cannot name a group{(key.BinWidth > 0 ? " or be binned" : "")}");
+        throw new SourceException($"{path}: column '{key.Name}' holds {t.Name}, which cannot name a group{(key.BinWidth > 0 ? " or be binned" : "")}");
     }
 }
