@@ -35,7 +35,7 @@ internal static class ContrastVerb
             {
                 var count = common.Settings(pr);
                 if (count.ShardCount > 0) throw new UsageException("--shard cannot be used with contrast: every group must be counted whole");
-                GroupKey key;
+                GroupKey? key = null;
                 string? byValue = pr.GetValue(by), groupsFile = pr.GetValue(groups);
                 if ((byValue is null) == (groupsFile is null)) throw new UsageException("contrast needs exactly one of --by KEY or --groups FILE");
                 if (byValue is not null)
@@ -43,7 +43,6 @@ internal static class ContrastVerb
                     try { key = GroupKey.Parse(byValue); }
                     catch (FormatException e) { throw new UsageException(e.Message); }
                 }
-                else key = GroupKey.FromTable(groupsFile!);
                 int r = pr.GetValue(reps), b = pr.GetValue(bootReps), t = pr.GetValue(thinReps), mt = pr.GetValue(minTail);
                 double ro = pr.GetValue(renyi), lv = pr.GetValue(level);
                 if (r < 0 || b < 2 || t < 1) throw new UsageException("--reps must be 0 or more, --boot-reps at least 2, --thin-reps at least 1");
@@ -51,7 +50,8 @@ internal static class ContrastVerb
                 if (!(ro > 0) || !(lv > 0 && lv < 1)) throw new UsageException("--renyi-order must be positive and --level between 0 and 1");
                 var options = new ContrastOptions(r, b, t, !pr.GetValue(noMatch), mt, ro, lv, pr.GetValue(seed), count.Threads);
                 var source = (count.Source ?? new SourceOptions()) with { SkipBadGroupValues = pr.GetValue(skipBad) };
-                var settings = new ContrastSettings(count with { Source = source }, key, options, pr.GetValue(output), pr.GetValue(common.RedactBelow), pr.GetValue(title));
+                var settings = new ContrastSettings(count with { Source = source }, key, options, pr.GetValue(output), pr.GetValue(common.RedactBelow),
+                    pr.GetValue(title), groupsFile);
                 bool quiet = pr.GetValue(common.Quiet);
                 var cp = new ConsoleProgress(stderr, quiet);
                 var sp = new ContrastConsoleProgress(stderr, quiet);
@@ -63,7 +63,7 @@ internal static class ContrastVerb
                     stdout.WriteLine(res.SummaryJson);
                     return CliApp.Ok;
                 }
-                if (!quiet) Write(stdout, res, key);
+                if (!quiet) Write(stdout, res);
                 return CliApp.Ok;
             }
             catch (Exception e) { return CliApp.Fail(stderr, e); }
@@ -71,10 +71,10 @@ internal static class ContrastVerb
         return cmd;
     }
 
-    private static void Write(TextWriter o, ContrastJobResult res, GroupKey key)
+    private static void Write(TextWriter o, ContrastJobResult res)
     {
         var r = res.Contrast;
-        o.WriteLine($"contrast by {key.Spec}: {r.Groups.Count} groups, {res.Count.Tokens:N0} tokens" +
+        o.WriteLine($"contrast by {res.GroupKey}: {r.Groups.Count} groups, {res.Count.Tokens:N0} tokens" +
             (r.TargetTokens > 0 ? $", matched size {r.TargetTokens:N0} tokens ({r.Options.ThinReps} thinnings)" : ", no size matching"));
         int w = Math.Clamp(r.Groups.Max(g => g.Group.Length), 5, 40);
         o.WriteLine($"  {"group".PadRight(w)} {"tokens",11} {"types",9} {"α",6} {"95% interval",15} {"xmin",6} {"n_tail",7} {"gof_p",6} │ {"matched α",9} {"± sd",6} {"types",8} {"hapax",6} {"H bits",6}");

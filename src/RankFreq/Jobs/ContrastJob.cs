@@ -9,13 +9,14 @@ namespace RankFreq.Jobs;
 
 /// <summary>How to contrast document sets.</summary>
 /// <param name="Count">Counting settings (tokenizer, inputs, threads, memory).</param>
-/// <param name="Key">What a document's group is.</param>
+/// <param name="Key">What a document's group is (null: read from <paramref name="GroupsFile"/>).</param>
 /// <param name="Options">Statistics settings.</param>
 /// <param name="OutputDirectory">Folder for tables, plots and the report (null: nothing written).</param>
 /// <param name="RedactBelow">Write token strings of types counted below this as null in the grouped count table.</param>
 /// <param name="Title">Report title (default: the input name).</param>
-public sealed record ContrastSettings(CountSettings Count, GroupKey Key, ContrastOptions Options, string? OutputDirectory = null,
-    long RedactBelow = 0, string? Title = null);
+/// <param name="GroupsFile">A file of (path, group) lines, read by <see cref="GroupKey.FromTable"/> when no key is given.</param>
+public sealed record ContrastSettings(CountSettings Count, GroupKey? Key, ContrastOptions Options, string? OutputDirectory = null,
+    long RedactBelow = 0, string? Title = null, string? GroupsFile = null);
 
 /// <summary>What a contrast produced.</summary>
 /// <param name="Count">Counting figures of the whole run.</param>
@@ -25,8 +26,9 @@ public sealed record ContrastSettings(CountSettings Count, GroupKey Key, Contras
 /// <param name="SummaryJson">The JSON document (also written as summary.json when there is an output folder).</param>
 /// <param name="ReportPath">report.html, when written.</param>
 /// <param name="Warnings">Things the user should know (files skipped, records skipped, no font).</param>
+/// <param name="GroupKey">The key as written (<c>field:year/50</c>, <c>groups:FILE</c>).</param>
 public sealed record ContrastJobResult(CountSummary Count, ContrastResult Contrast, long BadGroupValues, IReadOnlyList<string> Cautions,
-    string SummaryJson, string? ReportPath, IReadOnlyList<string> Warnings);
+    string SummaryJson, string? ReportPath, IReadOnlyList<string> Warnings, string GroupKey);
 
 /// <summary>
 /// <c>contrast</c>: counts every group in one pass, compares the groups' tails and lexical figures at their own and
@@ -36,27 +38,31 @@ public sealed record ContrastJobResult(CountSummary Count, ContrastResult Contra
 public static class ContrastJob
 {
     /// <summary>Runs the contrast. Bad input throws a <see cref="Primitives.RankFreqException"/> before anything is written.</summary>
-    public static async Task<ContrastJobResult> RunAsync(IReadOnlyList<string> inputs, ContrastSettings s, IProgress<CountProgress>? countProgress = null,
+    public static async Task<ContrastJobResult> RunAsync(IReadOnlyList<string> inputs, ContrastSettings settings, IProgress<CountProgress>? countProgress = null,
         IProgress<ContrastProgress>? progress = null, CancellationToken ct = default)
     {
-        using var counted = CountGroups(inputs, s.Count, s.Key, countProgress, ct);
+        var s = settings.Key is null
+            ? settings with { Key = GroupKey.FromTable(settings.GroupsFile ?? throw new ArgumentException("a group key or a groups file is needed", nameof(settings))) }
+            : settings;
+        var key = s.Key!;
+        using var counted = CountGroups(inputs, s.Count, key, countProgress, ct);
         var byLabel = counted.Groups.ToDictionary(g => g.Group, StringComparer.Ordinal);
-        var ordered = s.Key.Order(byLabel.Keys).Select(l => byLabel[l]).ToList();
+        var ordered = key.Order(byLabel.Keys).Select(l => byLabel[l]).ToList();
         var spectra = ordered.Select(g => new GroupSpectrum(g.Group, g.Spectrum, g.Documents)).ToList();
         var result = GroupComparison.Compare(spectra, s.Options, progress, ct);
 
         var warnings = CountJob.Warnings(counted.Summary);
         if (counted.BadGroupValues > 0)
-            warnings.Add($"{counted.BadGroupValues:N0} record(s) skipped because their '{s.Key.Name}' value could not be binned (--skip-bad)");
+            warnings.Add($"{counted.BadGroupValues:N0} record(s) skipped because their '{key.Name}' value could not be binned (--skip-bad)");
         var cautions = result.Cautions.Concat(Reporting.Cautions.For(s.RedactBelow)).ToList();
-        var summary = ContrastSummary.Build(result, counted.Summary, s.Key.Spec, counted.BadGroupValues, cautions);
+        var summary = ContrastSummary.Build(result, counted.Summary, key.Spec, counted.BadGroupValues, cautions);
         string json = JsonText.Write(summary);
         string? report = null;
         if (s.OutputDirectory is { } dir)
         {
             report = await WriteFolderAsync(dir, inputs, s, counted, ordered, spectra, result, cautions, json, warnings, ct);
         }
-        return new ContrastJobResult(counted.Summary, result, counted.BadGroupValues, cautions, json, report, warnings);
+        return new ContrastJobResult(counted.Summary, result, counted.BadGroupValues, cautions, json, report, warnings, key.Spec);
     }
 
     /// <summary>
@@ -126,7 +132,7 @@ public static class ContrastJob
         try
         {
             var meta = CountTableMetadata.From(counted.Summary, s.RedactBelow);
-            await ContrastTables.WriteGroupedCountsAsync(Path.Combine(tmp, "counts.parquet"), ordered, counted.HasTokenIds, meta, s.Key.Spec, ct);
+            await ContrastTables.WriteGroupedCountsAsync(Path.Combine(tmp, "counts.parquet"), ordered, counted.HasTokenIds, meta, s.Key!.Spec, ct);
             await ContrastTables.WriteGroupsAsync(Path.Combine(tmp, "groups.parquet"), result, ct);
             await ContrastTables.WritePairsAsync(Path.Combine(tmp, "pairs.parquet"), result, ct);
             await AtomicFile.WriteTextAsync(Path.Combine(tmp, "summary.json"), json);
@@ -139,7 +145,7 @@ public static class ContrastJob
             if (Plots.Font is null)
                 warnings.Add("no font file found (looked in the fontconfig folders), so PNG plots were skipped; install a font (Debian: fonts-dejavu-core) to get them. SVG plots and the report are complete.");
             string title = s.Title ?? (inputs.Count == 1 ? Path.GetFileName(Path.TrimEndingDirectorySeparator(Path.GetFullPath(inputs[0]))) : $"{inputs.Count} inputs");
-            await AtomicFile.WriteTextAsync(Path.Combine(tmp, "report.html"), ReportHtml.BuildContrast(title, s.Key.Spec, counted.Summary, result, cautions, plots));
+            await AtomicFile.WriteTextAsync(Path.Combine(tmp, "report.html"), ReportHtml.BuildContrast(title, s.Key!.Spec, counted.Summary, result, cautions, plots));
             Publish(tmp, full);
         }
         catch

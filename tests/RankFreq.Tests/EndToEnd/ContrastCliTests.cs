@@ -117,6 +117,15 @@ public class ContrastCliTests
         Assert.Equal(2, Cli.Run("contrast", path, "--by", "colour").Code);
         Assert.Equal(2, Cli.Run("contrast", path, "--by", "field:").Code);
         Assert.Equal(2, Cli.Run("contrast", path).Code);
+        Assert.Equal(2, Cli.Run("contrast", path, "--by", "file", "--groups", d["g.csv"]).Code);
+        // a groups file that is missing, or has a line of one column: exit 1 naming it
+        var noGroups = Cli.Run("contrast", path, "--groups", d["g.csv"]);
+        Assert.Equal(1, noGroups.Code);
+        Assert.Contains("g.csv", noGroups.Err);
+        File.WriteAllText(d["g.csv"], $"{path},all\nlonely-line\n");
+        var oneColumn = Cli.Run("contrast", path, "--groups", d["g.csv"]);
+        Assert.Equal(1, oneColumn.Code);
+        Assert.Contains("g.csv:2:", oneColumn.Err);
         // a field no record has: one line naming the file, exit 1, no output folder
         var unknown = Cli.Run(["contrast", path, "--by", "field:shift", "--text-field", "log.text", "-o", d["out"], .. Quick]);
         Assert.Equal(1, unknown.Code);
