@@ -65,8 +65,9 @@ public static class CliApp
     {
         switch (e)
         {
-            case RankFreqException:
-                stderr.WriteLine($"rankfreq: error: {e.Message}");
+            case RankFreqException r:
+                stderr.WriteLine($"rankfreq: error: {e.Message}"
+                    + (r.Setting is { } s && OptionFor.TryGetValue(s, out var option) ? $" (see {option})" : ""));
                 return Error;
             case OperationCanceledException:
                 stderr.WriteLine("rankfreq: interrupted; no output written");
@@ -83,6 +84,13 @@ public static class CliApp
                 return Internal;
         }
     }
+
+    /// <summary>The option that sets each settings property a library error may name.</summary>
+    private static readonly Dictionary<string, string> OptionFor = new()
+    {
+        ["MaxRecordBytes"] = "--max-record", ["MemoryBytes"] = "--memory", ["MinTail"] = "--min-tail",
+        ["TextField"] = "--text-field", ["TextColumn"] = "--text-column", ["Tokenizer"] = "--tokenizer",
+    };
 
     /// <summary>Set from <c>--verbose</c> before the verb runs.</summary>
     internal static bool Verbose { get; private set; }

@@ -1,6 +1,7 @@
 using System.CommandLine;
 using RankFreq.Counting;
 using RankFreq.Jobs;
+using RankFreq.Primitives;
 
 namespace RankFreq.Cli;
 
@@ -25,7 +26,7 @@ internal static class CountVerb
                 progress.Done();
                 var s = result.Summary;
                 foreach (var w in result.Warnings) stderr.WriteLine($"rankfreq: warning: {w}");
-                if (json) stdout.WriteLine(Reporting.JsonText.Write(SummaryJson(s)));
+                if (json) stdout.WriteLine(JsonText.Write(SummaryJson(s)));
                 else if (!quiet) WriteSummary(stdout, s, pr.GetValue(output)!);
                 return CliApp.Ok;
             }
@@ -34,7 +35,7 @@ internal static class CountVerb
         return cmd;
     }
 
-    internal static Dictionary<string, object?> SummaryJson(CountSummary s) => Reporting.SummaryFields.Count(s);
+    internal static Dictionary<string, object?> SummaryJson(CountSummary s) => ResultFields.ToMap(CountSummaryFields.All, s);
 
     internal static void WriteSummary(TextWriter o, CountSummary s, string path)
     {

@@ -3,6 +3,7 @@ using System.Globalization;
 using RankFreq.Counting;
 using RankFreq.Fitting;
 using RankFreq.Jobs;
+using RankFreq.Primitives;
 
 namespace RankFreq.Cli;
 
@@ -28,7 +29,7 @@ internal static class FitVerb
                 var r = await FitJob.RunAsync(pr.GetValue(input)!, options, pr.GetValue(output), progress, ct);
                 progress.Done();
                 var fit = r.Fit;
-                if (pr.GetValue(json)) stdout.WriteLine(Reporting.JsonText.Write(FitJson(fit)));
+                if (pr.GetValue(json)) stdout.WriteLine(JsonText.Write(FitJson(fit)));
                 else if (!pr.GetValue(quiet)) FitSummary.Write(stdout, fit, $"{pr.GetValue(input)}: {r.Description}, {r.Spectrum.TypeCount:N0} types");
                 return CliApp.Ok;
             }
@@ -37,5 +38,5 @@ internal static class FitVerb
         return cmd;
     }
 
-    internal static Dictionary<string, object?> FitJson(TailFitResult f) => Reporting.SummaryFields.Fit(f);
+    internal static Dictionary<string, object?> FitJson(TailFitResult f) => ResultFields.ToMap(TailFitFields.FitWithAlternatives, f);
 }

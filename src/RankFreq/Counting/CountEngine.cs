@@ -156,11 +156,7 @@ public static partial class CountEngine
         var display = ids.Select(tok.DisplayToken).ToArray();
         var keys = display.Select(Encoding.UTF8.GetBytes).ToArray();
         var order = Enumerable.Range(0, ids.Length).ToArray();
-        Array.Sort(order, (a, b) =>
-        {
-            int c = counts[ids[b]].CompareTo(counts[ids[a]]);
-            return c != 0 ? c : keys[a].AsSpan().SequenceCompareTo(keys[b]);
-        });
+        Array.Sort(order, (a, b) => RankOrder.Compare(counts[ids[a]], keys[a], counts[ids[b]], keys[b]));
         var rowTokens = order.Select(i => (string?)display[i]).ToArray();
         var rowIds = order.Select(i => ids[i]).ToArray();
         var rowCounts = order.Select(i => counts[ids[i]]).ToArray();

@@ -1,5 +1,3 @@
-using RankFreq.Sources;
-
 namespace RankFreq.Counting;
 
 /// <summary>
@@ -17,17 +15,14 @@ public sealed record FrequencySpectrum(long[] Values, long[] Types)
     /// <summary>Builds a spectrum from (value, multiplicity) pairs in any order; equal values are added up.</summary>
     public static FrequencySpectrum FromPairs(IEnumerable<(long Value, long Types)> pairs)
     {
-        var d = new SortedDictionary<long, long>();
-        foreach (var (v, m) in pairs)
-        {
-            if (m == 0) continue;
-            d[v] = d.TryGetValue(v, out var x) ? x + m : m;
-        }
-        return new FrequencySpectrum(d.Keys.ToArray(), d.Values.ToArray());
+        var b = new SpectrumBuilder();
+        foreach (var (v, m) in pairs) b.Add(v, m);
+        return b.Build();
     }
 
     /// <summary>Equal when the (value, multiplicity) pairs are equal.</summary>
-    public bool Equals(FrequencySpectrum? other) => other is not null && Values.AsSpan().SequenceEqual(other.Values) && Types.AsSpan().SequenceEqual(other.Types);
+    public bool Equals(FrequencySpectrum? other) =>
+        other is not null && Values.AsSpan().SequenceEqual(other.Values) && Types.AsSpan().SequenceEqual(other.Types);
 
     /// <inheritdoc/>
     public override int GetHashCode() => HashCode.Combine(Values.Length, TypeCount, TokenCount);

@@ -5,7 +5,8 @@ namespace RankFreq.Counting;
 /// <summary>Turns worker tables (and spill runs) into the rank table, the spectrum and the growth histogram.</summary>
 internal static class RankBuilder
 {
-    public static (ICountRows Rows, FrequencySpectrum Spectrum) Build(List<TokenTable> tables, SpillSet spill, long budget, GrowthHistogram growth, bool withIds = false)
+    public static (ICountRows Rows, FrequencySpectrum Spectrum) Build(List<TokenTable> tables, SpillSet spill, long budget,
+        GrowthHistogram growth, bool withIds = false)
     {
         if (spill.Phase1.Count == 0)
         {
@@ -33,11 +34,11 @@ internal static class RankBuilder
             });
             main.Clear();
             spill.Dispose();
-            return (new InMemoryRows(tokens, ids, counts), SpectrumOfRanked(counts));
+            return (new InMemoryRows(tokens, ids, counts), FrequencySpectrum.FromCounts(counts));
         }
 
         foreach (var t in tables) spill.Spill(t);
-        var spectrum = new Dictionary<long, long>();
+        var spectrum = new SpectrumBuilder();
         var phase2 = new List<string>();
         var buffer = new List<RunRecord>();
         long bufBytes = 0;
@@ -66,33 +67,16 @@ internal static class RankBuilder
         if (cur is not null) Emit(cur);
         Flush();
         foreach (var p in spill.Phase1) File.Delete(p);
-        return (new SpilledRows(phase2, spill, withIds), FrequencySpectrum.FromPairs(spectrum.Select(kv => (kv.Key, kv.Value))));
+        return (new SpilledRows(phase2, spill, withIds), spectrum.Build());
 
         void Emit(RunRecord r)
         {
-            spectrum[r.Count] = spectrum.GetValueOrDefault(r.Count) + 1;
+            spectrum.Add(r.Count);
             growth.Add(r.First);
             buffer.Add(r);
             bufBytes += r.Key.Length + 96;
             if (bufBytes > budget) Flush();
         }
-    }
-
-    /// <summary>The spectrum of counts sorted in descending order, by run lengths.</summary>
-    internal static FrequencySpectrum SpectrumOfRanked(long[] counts)
-    {
-        var values = new long[counts.Length];
-        var types = new long[counts.Length];
-        int n = 0;
-        for (int i = counts.Length - 1; i >= 0;)
-        {
-            int j = i;
-            while (j > 0 && counts[j - 1] == counts[i]) j--;
-            values[n] = counts[i];
-            types[n++] = i - j + 1;
-            i = j - 1;
-        }
-        return new FrequencySpectrum(values[..n], types[..n]);
     }
 
     /// <summary>Rank-ordered rows merged from rank-sorted runs on disk; can be read once; dispose removes the runs.</summary>

@@ -1,3 +1,4 @@
+using RankFreq.Primitives;
 namespace RankFreq.Counting;
 
 /// <summary>
@@ -10,7 +11,8 @@ internal static class RunMerge
     /// <summary>Most runs read at the same time.</summary>
     public const int MaxFanIn = 128;
 
-    /// <summary>The records of <paramref name="runs"/> in <paramref name="order"/>; <paramref name="newPath"/> names intermediate runs, which are deleted when merged.</summary>
+    /// <summary>The records of <paramref name="runs"/> in <paramref name="order"/>; <paramref name="newPath"/> names
+    /// intermediate runs, which are deleted when merged.</summary>
     public static IEnumerable<RunRecord> Merge(IReadOnlyList<string> runs, IComparer<RunRecord> order, Func<string> newPath)
     {
         var level = runs.ToList();
@@ -55,9 +57,5 @@ internal static class RunMerge
     public static readonly IComparer<RunRecord> ByKey = Comparer<RunRecord>.Create((a, b) => a.Key.AsSpan().SequenceCompareTo(b.Key));
 
     /// <summary>Rank order: count descending, ties by key bytes.</summary>
-    public static readonly IComparer<RunRecord> ByRank = Comparer<RunRecord>.Create((a, b) =>
-    {
-        int c = b.Count.CompareTo(a.Count);
-        return c != 0 ? c : a.Key.AsSpan().SequenceCompareTo(b.Key);
-    });
+    public static readonly IComparer<RunRecord> ByRank = Comparer<RunRecord>.Create((a, b) => RankOrder.Compare(a.Count, a.Key, b.Count, b.Key));
 }

@@ -40,7 +40,11 @@ internal sealed class SpillSet(string? root) : IDisposable
                     w.Write(table.Key(e), e.Count, e.First, e.Id);
                 }
         }
-        catch (IOException e) { throw new CountingException($"{path}: cannot write a spill run ({e.Message}); free disk space or set a larger --memory", e); }
+        catch (IOException e)
+        {
+            throw new CountingException($"{path}: cannot write a spill run ({e.Message}); free disk space or raise the memory "
+                + "budget", e) { Setting = nameof(CountSettings.MemoryBytes) };
+        }
         lock (_gate) Phase1.Add(path);
         table.Clear();
     }

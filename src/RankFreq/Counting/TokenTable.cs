@@ -267,7 +267,8 @@ internal sealed class TokenTable
     private readonly record struct SortKey(long Count, ulong A, ulong B, int Len, int Index);
 
     /// <summary>
-    /// Orders sort keys. The sort is written here rather than taken from the base library so that ahead-of-time
+    /// Orders sort keys by <see cref="RankOrder"/> (or by key alone), comparing packed key words before the arena
+    /// bytes. The sort is written here rather than taken from the base library so that ahead-of-time
     /// compiled builds run it optimised (a base-library sort instantiated over this struct is compiled at run time,
     /// first unoptimised). Quicksort with median-of-three pivots and insertion sort below 24 elements; recursion on the
     /// smaller side only, so the stack stays O(log n).

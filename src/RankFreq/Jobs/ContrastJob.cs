@@ -1,5 +1,6 @@
 using RankFreq.Comparison;
 using RankFreq.Counting;
+using RankFreq.Primitives;
 using RankFreq.Reporting;
 using RankFreq.Sources;
 using RankFreq.Storage;
@@ -136,16 +137,12 @@ public static class ContrastJob
             await ContrastTables.WriteGroupsAsync(Path.Combine(tmp, "groups.parquet"), result, ct);
             await ContrastTables.WritePairsAsync(Path.Combine(tmp, "pairs.parquet"), result, ct);
             await AtomicFile.WriteTextAsync(Path.Combine(tmp, "summary.json"), json);
-            var plots = new List<PlotFile>
-            {
-                Plots.Exponents(result, tmp),
-                Plots.RankFrequencyByGroup(spectra, tmp),
-                Plots.CcdfByGroup(spectra, tmp),
-            };
+            var rendered = new[] { Plots.Exponents(result), Plots.RankFrequencyByGroup(spectra), Plots.CcdfByGroup(spectra) };
+            await PlotFiles.WriteAsync(tmp, rendered);
             if (Plots.Font is null)
                 warnings.Add("no font file found (looked in the fontconfig folders), so PNG plots were skipped; install a font (Debian: fonts-dejavu-core) to get them. SVG plots and the report are complete.");
             string title = s.Title ?? (inputs.Count == 1 ? Path.GetFileName(Path.TrimEndingDirectorySeparator(Path.GetFullPath(inputs[0]))) : $"{inputs.Count} inputs");
-            await AtomicFile.WriteTextAsync(Path.Combine(tmp, "report.html"), ReportHtml.BuildContrast(title, s.Key!.Spec, counted.Summary, result, cautions, plots));
+            await AtomicFile.WriteTextAsync(Path.Combine(tmp, "report.html"), ReportHtml.BuildContrast(title, s.Key!.Spec, counted.Summary, result, cautions, rendered));
             Publish(tmp, full);
         }
         catch

@@ -1,6 +1,7 @@
 using RankFreq.Counting;
 using RankFreq.Fitting;
 using RankFreq.Lexical;
+using RankFreq.Primitives;
 using RankFreq.Reporting;
 using RankFreq.Storage;
 
@@ -30,20 +31,22 @@ public static class ProfileJob
         await FitTableFile.WriteAsync(Path.Combine(dir, "fit.parquet"), [("all", fit)], ct);
         await TableFiles.WriteGrowthAsync(Path.Combine(dir, "growth.parquet"), growth, ct);
 
-        var plots = new List<PlotFile>
+        var rendered = new[]
         {
-            Plots.RankFrequency(counted.Spectrum, fit, dir),
-            Plots.Ccdf(counted.Spectrum, fit, dir),
-            Plots.Spectrum(counted.Spectrum, dir),
-            Plots.Growth(growth, dir),
+            Plots.RankFrequency(counted.Spectrum, fit), Plots.Ccdf(counted.Spectrum, fit), Plots.Spectrum(counted.Spectrum),
+            Plots.Growth(growth),
         };
+        var plots = await PlotFiles.WriteAsync(dir, rendered);
         if (Plots.Font is null)
             warnings.Add("no font file found (looked in the fontconfig folders), so PNG plots were skipped; install a font (Debian: fonts-dejavu-core) to get them. SVG plots and the report are complete.");
 
         var summary = new Dictionary<string, object?>();
-        foreach (var kv in SummaryFields.Count(sum)) summary[kv.Key] = kv.Value;
-        foreach (var kv in SummaryFields.Fit(fit)) summary[kv.Key] = kv.Value;
-        foreach (var kv in SummaryFields.Lexical(lex, growth)) summary[kv.Key] = kv.Value;
+        foreach (var part in new[]
+        {
+            ResultFields.ToMap(CountSummaryFields.All, sum), ResultFields.ToMap(TailFitFields.FitWithAlternatives, fit),
+            ResultFields.ToMap(LexicalFields.Summary, lex), ResultFields.ToMap(LexicalFields.Growth, growth),
+        })
+            foreach (var kv in part) summary[kv.Key] = kv.Value;
         summary["settings"] = new Dictionary<string, object?>
         {
             ["tokenizer"] = s.Count.Tokenizer, ["format"] = (s.Count.Source ?? new()).Format.ToString().ToLowerInvariant(),
@@ -59,7 +62,7 @@ public static class ProfileJob
 
         string title = s.Title ?? (inputs.Count == 1 ? Path.GetFileName(Path.TrimEndingDirectorySeparator(Path.GetFullPath(inputs[0]))) : $"{inputs.Count} inputs");
         string reportPath = Path.Combine(dir, "report.html");
-        await AtomicFile.WriteTextAsync(reportPath, ReportHtml.Build(title, sum, fit, lex, growth, plots, s.RedactBelow));
+        await AtomicFile.WriteTextAsync(reportPath, ReportHtml.Build(title, sum, fit, lex, growth, rendered, s.RedactBelow));
         return new ProfileResult(sum, fit, lex, growth, plots, reportPath, summaryPath, summaryJson, warnings);
     }
 }

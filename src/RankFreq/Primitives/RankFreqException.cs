@@ -14,4 +14,8 @@ public abstract class RankFreqException(string message, Exception? inner = null)
 
     /// <summary>The byte offset in <see cref="File"/>, where known and no line is.</summary>
     public long? Offset { get; init; }
+
+    /// <summary>The settings property (e.g. <c>MaxRecordBytes</c>) whose change would help, if any; front ends name
+    /// their own option for it, so library messages never name command-line flags.</summary>
+    public string? Setting { get; init; }
 }

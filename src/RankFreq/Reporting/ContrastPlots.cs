@@ -19,7 +19,7 @@ public static partial class Plots
     /// Each fitted group's α with its 95% interval: raw (bootstrap over types) and, when matched, at the common size
     /// (bootstrap then thinning), one row per group.
     /// </summary>
-    public static PlotFile Exponents(ContrastResult r, string dir)
+    public static RenderedPlot Exponents(ContrastResult r)
     {
         var p = NewPlot("Tail exponent by group", "α (95% interval)", "");
         var groups = r.Groups.Where(g => g.Status == ContrastStatus.Ok).ToList();
@@ -37,7 +37,7 @@ public static partial class Plots
         // an empty band below the last group holds the legend
         p.Axes.SetLimitsY(-0.6, groups.Count + 0.6);
         p.ShowLegend(Alignment.LowerRight);
-        return Save(p, dir, "exponents", "Tail exponent α of each group with its 95% interval, own size and matched size");
+        return Render(p, "exponents", "Tail exponent α of each group with its 95% interval, own size and matched size");
     }
 
     private static void Interval(Plot p, double y, double lo, double hi, double mid, Color c, string? legend)
@@ -84,7 +84,7 @@ public static partial class Plots
     }
 
     /// <summary>Rank–frequency curves of the groups on shared log–log axes (both ends of each rank block).</summary>
-    public static PlotFile RankFrequencyByGroup(IReadOnlyList<GroupSpectrum> groups, string dir)
+    public static RenderedPlot RankFrequencyByGroup(IReadOnlyList<GroupSpectrum> groups)
     {
         var p = NewPlot("Rank and frequency by group", "rank (log scale)", "frequency (log scale)");
         LogAxes(p);
@@ -97,11 +97,11 @@ public static partial class Plots
             line.LegendText = groups[gi].Group;
         }
         p.ShowLegend(Alignment.UpperRight);
-        return Save(p, dir, "rank-frequency-groups", "Rank–frequency (log–log) of each group");
+        return Render(p, "rank-frequency-groups", "Rank–frequency (log–log) of each group");
     }
 
     /// <summary>Complementary CDFs of type frequencies of the groups on shared log–log axes.</summary>
-    public static PlotFile CcdfByGroup(IReadOnlyList<GroupSpectrum> groups, string dir)
+    public static RenderedPlot CcdfByGroup(IReadOnlyList<GroupSpectrum> groups)
     {
         var p = NewPlot("Share of types at least this frequent, by group", "frequency x (log scale)", "P(X ≥ x) (log scale)");
         LogAxes(p);
@@ -114,6 +114,6 @@ public static partial class Plots
             line.LegendText = groups[gi].Group;
         }
         p.ShowLegend(Alignment.LowerLeft);
-        return Save(p, dir, "ccdf-groups", "Complementary CDF of frequencies of each group");
+        return Render(p, "ccdf-groups", "Complementary CDF of frequencies of each group");
     }
 }

@@ -1,6 +1,7 @@
 using System.Text;
 using RankFreq.Comparison;
 using RankFreq.Counting;
+using RankFreq.Primitives;
 
 namespace RankFreq.Reporting;
 
@@ -9,7 +10,7 @@ public static partial class ReportHtml
 {
     /// <summary>Builds the contrast report: findings, groups at own and matched size, pairs, plots, cautions, settings.</summary>
     public static string BuildContrast(string title, string groupKey, CountSummary c, ContrastResult r, IReadOnlyList<string> cautions,
-        IReadOnlyList<PlotFile> plots)
+        IReadOnlyList<RenderedPlot> plots)
     {
         var sb = new StringBuilder();
         sb.Append("<!DOCTYPE html><html lang=\"en\"><head><meta charset=\"utf-8\"><meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">");
@@ -97,12 +98,12 @@ public static partial class ReportHtml
     }
 
     /// <summary>The plots inlined as SVG, each with its caption.</summary>
-    private static void Figures(StringBuilder sb, IReadOnlyList<PlotFile> plots)
+    private static void Figures(StringBuilder sb, IReadOnlyList<RenderedPlot> plots)
     {
         sb.Append("<section class=\"plots\">");
         foreach (var p in plots)
         {
-            string svg = File.ReadAllText(p.SvgPath);
+            string svg = p.Svg;
             int i = svg.IndexOf("<svg", StringComparison.Ordinal);
             sb.Append($"<figure>{(i >= 0 ? svg[i..] : svg)}<figcaption>{H(p.Title)}</figcaption></figure>");
         }
@@ -120,15 +121,7 @@ public static partial class ReportHtml
             sb.Append("<tr>");
             foreach (var f in chosen)
             {
-                object? v = f.Get(row);
-                string text = v switch
-                {
-                    double d when f.Name is "xmin" or "n_tail" => F(d, "N0"),
-                    double d => F(d),
-                    long l => N(l),
-                    bool b => b ? "yes" : "no",
-                    _ => H(v?.ToString() ?? ""),
-                };
+                string text = H(f.Display(row));
                 sb.Append(f.Kind is FieldKind.Text ? $"<td>{text}</td>" : $"<td class=\"n\">{text}</td>");
             }
             sb.Append("</tr>");

@@ -1,25 +1,12 @@
 using RankFreq.Comparison;
 using RankFreq.Counting;
+using RankFreq.Primitives;
 
 namespace RankFreq.Reporting;
 
 /// <summary>The JSON document of a contrast (<c>contrast --json</c> and <c>summary.json</c>), from the field lists of <see cref="ContrastFields"/>.</summary>
 public static class ContrastSummary
 {
-    private static object? Value(FieldKind kind, object? v) => kind switch
-    {
-        FieldKind.Real => v is double d ? SummaryFields.J(d) : null,
-        _ => v,
-    };
-
-    /// <summary>The fields of <paramref name="item"/> as an ordered dictionary.</summary>
-    public static Dictionary<string, object?> Fields<T>(IReadOnlyList<ResultField<T>> fields, T item)
-    {
-        var d = new Dictionary<string, object?>();
-        foreach (var f in fields) d[f.Name] = Value(f.Kind, f.Get(item));
-        return d;
-    }
-
     /// <summary>
     /// <c>groups</c> (each: the raw fields, and <c>matched</c> with the size-matched figures or null), <c>pairs</c>
     /// (each: <c>a</c>, <c>b</c>, <c>basis</c>, the headline difference, <c>raw</c> and <c>matched</c>), the findings,
@@ -40,16 +27,16 @@ public static class ContrastSummary
             ["target_tokens"] = r.TargetTokens,
             ["groups"] = r.Groups.Select(g =>
             {
-                var d = Fields(ContrastFields.Group, g);
-                d["matched"] = g.Matched is { } m ? Fields(ContrastFields.Matched, m) : null;
+                var d = ResultFields.ToMap(ContrastFields.Group, g);
+                d["matched"] = g.Matched is { } m ? ResultFields.ToMap(ContrastFields.Matched, m) : null;
                 return d;
             }).ToList(),
             ["pairs"] = r.Pairs.Select(p =>
             {
                 var d = new Dictionary<string, object?> { ["a"] = p.A, ["b"] = p.B, ["basis"] = p.Basis };
-                foreach (var kv in Fields(ContrastFields.Difference, p.Headline)) d[kv.Key] = kv.Value;
-                d["raw"] = Fields(ContrastFields.Difference, p.Raw);
-                d["matched"] = p.Matched is { } m ? Fields(ContrastFields.Difference, m) : null;
+                foreach (var kv in ResultFields.ToMap(ContrastFields.Difference, p.Headline)) d[kv.Key] = kv.Value;
+                d["raw"] = ResultFields.ToMap(ContrastFields.Difference, p.Raw);
+                d["matched"] = p.Matched is { } m ? ResultFields.ToMap(ContrastFields.Difference, m) : null;
                 return d;
             }).ToList(),
             ["findings"] = r.Findings.ToList(),

@@ -65,17 +65,11 @@ public static partial class Plots
             };
     }
 
-    private static PlotFile Save(Plot p, string dir, string name, string title)
-    {
-        string svg = Path.Combine(dir, name + ".svg");
-        string? png = Font is null ? null : Path.Combine(dir, name + ".png");
-        Storage.AtomicFile.WriteTextAsync(svg, p.GetSvgXml(760, 480)).GetAwaiter().GetResult();
-        if (png is not null) Storage.AtomicFile.WriteBytesAsync(png, p.GetImageBytes(760, 480, ImageFormat.Png)).GetAwaiter().GetResult();
-        return new PlotFile(name, title, svg, png);
-    }
+    private static RenderedPlot Render(Plot p, string name, string title) =>
+        new(name, title, p.GetSvgXml(760, 480), Font is null ? null : p.GetImageBytes(760, 480, ImageFormat.Png));
 
     /// <summary>Rank–frequency on log–log axes with the fitted tail.</summary>
-    public static PlotFile RankFrequency(FrequencySpectrum s, TailFitResult fit, string dir)
+    public static RenderedPlot RankFrequency(FrequencySpectrum s, TailFitResult fit)
     {
         var p = NewPlot("Rank and frequency", "rank (log scale)", "frequency (log scale)");
         LogAxes(p);
@@ -86,28 +80,20 @@ public static partial class Plots
         obs.LegendText = "observed types";
         if (fit.PowerLaw.Status == FitStatus.Ok)
         {
-            // the fitted tail: the type at frequency x has rank n_tail · ζ(α, x)/ζ(α, xmin)
             var pl = fit.PowerLaw;
-            double z0 = HurwitzZeta.Value(pl.Alpha, pl.Xmin);
-            var fx = new List<double>(); var fy = new List<double>();
-            double top = s.Values[^1];
-            for (double lx = Math.Log10(pl.Xmin); lx <= Math.Log10(top) + 1e-9; lx += 0.02)
-            {
-                double x = Math.Round(Math.Pow(10, lx));
-                double r = pl.NTail * HurwitzZeta.Value(pl.Alpha, x) / z0;
-                if (r < 1) break;
-                fx.Add(Math.Log10(r)); fy.Add(Math.Log10(x));
-            }
+            var (rk, fq) = TailModelCurves.Rank(pl, s.Values[^1]);
+            var fx = rk.Select(Math.Log10).ToList();
+            var fy = fq.Select(Math.Log10).ToList();
             var line = p.Add.ScatterLine(fx.ToArray(), fy.ToArray(), Ember);
             line.LineWidth = 2.5f;
             line.LegendText = $"power-law tail, α = {pl.Alpha:F3}, xmin = {pl.Xmin}";
         }
         p.ShowLegend(Alignment.UpperRight);
-        return Save(p, dir, "rank-frequency", "Rank–frequency (log–log) with the fitted tail");
+        return Render(p, "rank-frequency", "Rank–frequency (log–log) with the fitted tail");
     }
 
     /// <summary>Complementary CDF of type frequencies, with the fit and xmin marked.</summary>
-    public static PlotFile Ccdf(FrequencySpectrum s, TailFitResult fit, string dir)
+    public static RenderedPlot Ccdf(FrequencySpectrum s, TailFitResult fit)
     {
         var p = NewPlot("Share of types at least this frequent", "frequency x (log scale)", "P(X ≥ x) (log scale)");
         LogAxes(p);
@@ -119,13 +105,9 @@ public static partial class Plots
         if (fit.PowerLaw.Status == FitStatus.Ok)
         {
             var pl = fit.PowerLaw;
-            double z0 = HurwitzZeta.Value(pl.Alpha, pl.Xmin), share = pl.NTail / n;
-            var fx = new List<double>(); var fy = new List<double>();
-            for (double lx = Math.Log10(pl.Xmin); lx <= Math.Log10(s.Values[^1]) + 1e-9; lx += 0.02)
-            {
-                double x = Math.Round(Math.Pow(10, lx));
-                fx.Add(Math.Log10(x)); fy.Add(Math.Log10(share * HurwitzZeta.Value(pl.Alpha, x) / z0));
-            }
+            var (cx, cy) = TailModelCurves.Ccdf(pl, pl.NTail / n, s.Values[^1]);
+            var fx = cx.Select(Math.Log10).ToList();
+            var fy = cy.Select(Math.Log10).ToList();
             var line = p.Add.ScatterLine(fx.ToArray(), fy.ToArray(), Ember);
             line.LineWidth = 2.5f;
             line.LegendText = $"fitted power law, α = {pl.Alpha:F3}";
@@ -134,11 +116,11 @@ public static partial class Plots
             v.LegendText = $"xmin = {pl.Xmin}";
         }
         p.ShowLegend(Alignment.LowerLeft);
-        return Save(p, dir, "ccdf", "Complementary CDF of frequencies, fit and xmin");
+        return Render(p, "ccdf", "Complementary CDF of frequencies, fit and xmin");
     }
 
     /// <summary>The frequency spectrum: how many types occur exactly f times.</summary>
-    public static PlotFile Spectrum(FrequencySpectrum s, string dir)
+    public static RenderedPlot Spectrum(FrequencySpectrum s)
     {
         var p = NewPlot("Frequency spectrum", "frequency f (log scale)", "types with frequency f (log scale)");
         LogAxes(p);
@@ -146,11 +128,11 @@ public static partial class Plots
         pts.MarkerSize = 5;
         pts.LegendText = "V_f";
         p.ShowLegend(Alignment.UpperRight);
-        return Save(p, dir, "spectrum", "Frequency spectrum");
+        return Render(p, "spectrum", "Frequency spectrum");
     }
 
     /// <summary>Vocabulary growth: observed, expected under random order, Heaps fit.</summary>
-    public static PlotFile Growth(GrowthAnalysis g, string dir)
+    public static RenderedPlot Growth(GrowthAnalysis g)
     {
         var p = NewPlot("Vocabulary growth", "tokens N (log scale)", "types V(N) (log scale)");
         LogAxes(p);
@@ -161,10 +143,10 @@ public static partial class Plots
         e.LineWidth = 2f; e.LinePattern = LinePattern.Dashed; e.LegendText = "expected (random order)";
         if (double.IsFinite(g.HeapsBeta))
         {
-            var h = p.Add.ScatterLine(lx, g.Tokens.Select(t => Math.Log10(g.HeapsK * Math.Pow(t, g.HeapsBeta))).ToArray(), Ember);
+            var h = p.Add.ScatterLine(lx, g.Tokens.Select(t => Math.Log10(g.HeapsAt(t))).ToArray(), Ember);
             h.LineWidth = 1.5f; h.LinePattern = LinePattern.Dotted; h.LegendText = $"Heaps: V = {g.HeapsK:G3}·N^{g.HeapsBeta:F3}";
         }
         p.ShowLegend(Alignment.UpperLeft);
-        return Save(p, dir, "growth", "Vocabulary growth with Heaps' law");
+        return Render(p, "growth", "Vocabulary growth with Heaps' law");
     }
 }

@@ -4,6 +4,7 @@ using System.Text;
 using RankFreq.Counting;
 using RankFreq.Fitting;
 using RankFreq.Lexical;
+using RankFreq.Primitives;
 
 namespace RankFreq.Reporting;
 
@@ -15,7 +16,7 @@ public static partial class ReportHtml
     private static string H(string s) => WebUtility.HtmlEncode(s);
 
     /// <summary>Builds the report.</summary>
-    public static string Build(string title, CountSummary c, TailFitResult fit, LexicalSummary lex, GrowthAnalysis g, IReadOnlyList<PlotFile> plots, long redactBelow)
+    public static string Build(string title, CountSummary c, TailFitResult fit, LexicalSummary lex, GrowthAnalysis g, IReadOnlyList<RenderedPlot> plots, long redactBelow)
     {
         var pl = fit.PowerLaw;
         var sb = new StringBuilder();
@@ -49,18 +50,15 @@ public static partial class ReportHtml
 
         if (fit.Alternatives.Count > 0)
         {
-            sb.Append("<section><h2>Against other heavy-tailed families</h2><table><thead><tr><th>alternative</th><th>parameters</th><th>log-likelihood ratio</th><th>normalised</th><th>p</th><th>favours</th></tr></thead><tbody>");
-            foreach (var a in fit.Alternatives)
-                sb.Append($"<tr><td>{H(a.Name.Replace('_', ' '))}</td><td>{H(Storage.FitTableFile.ParameterText(a.Parameters))}</td><td class=\"n\">{F(a.Llr, "F2")}</td><td class=\"n\">{F(a.NormalizedLlr, "F2")}</td><td class=\"n\">{F(a.P)}</td><td><span class=\"tag {(a.Favours == "inconclusive" ? "neutral" : a.Favours == "power_law" ? "pl" : "alt")}\">{H(a.Favours.Replace('_', ' '))}</span></td></tr>");
-            sb.Append("</tbody></table><p class=\"note\">A positive ratio favours the power law. p is Vuong's two-sided test for the non-nested families and the boundary-corrected likelihood-ratio test for the power law with cut-off, which contains the power law. Above p = 0.1 the data cannot tell the two apart.</p></section>");
+            sb.Append("<section><h2>Against other heavy-tailed families</h2>");
+            Table(sb, TailFitFields.Alternative, fit.Alternatives);
+            sb.Append("<p class=\"note\">A positive ratio favours the power law. p is Vuong's two-sided test for the non-nested families and the boundary-corrected likelihood-ratio test for the power law with cut-off, which contains the power law. Above p = 0.1 the data cannot tell the two apart.</p></section>");
         }
 
         sb.Append("<section><h2>Vocabulary</h2><table><tbody>");
-        Row(sb, "tokens N", N(lex.Tokens)); Row(sb, "types V", N(lex.Types)); Row(sb, "type–token ratio V/N", F(lex.TypeTokenRatio, "F5"));
-        Row(sb, "hapax legomena (share of types)", $"{N(lex.Hapax)} ({100 * lex.HapaxShare:F1}%)"); Row(sb, "dis legomena (share of types)", $"{N(lex.Dis)} ({100 * lex.DisShare:F1}%)");
-        Row(sb, "Good–Turing unseen probability mass N₁/N", F(lex.GoodTuringUnseen, "F5")); Row(sb, "Chao1 lower bound on vocabulary size", F(lex.Chao1, "N0"));
-        Row(sb, "Yule's K", F(lex.YuleK, "F2")); Row(sb, "Shannon entropy, bits per token (Miller–Madow)", F(lex.EntropyMillerMadowBits, "F3"));
-        Row(sb, "Rényi efficiency (order 2.5)", F(lex.RenyiEfficiency, "F3")); Row(sb, "Heaps' law V = K·N^β", $"K = {F(g.HeapsK, "G4")}, β = {F(g.HeapsBeta, "F3")}");
+        Row(sb, "tokens N", N(lex.Tokens)); Row(sb, "types V", N(lex.Types));
+        foreach (var (label, value) in ResultFields.ForPeople(LexicalFields.Summary, lex).Concat(ResultFields.ForPeople(LexicalFields.Growth, g)))
+            Row(sb, label, H(value));
         sb.Append($"</tbody></table><p class=\"note\">Heaps' law: {H(g.HeapsMethod)}.</p></section>");
 
         Figures(sb, plots);
@@ -84,6 +82,22 @@ public static partial class ReportHtml
 
     private static void Card(StringBuilder sb, string label, string value, string note) =>
         sb.Append($"<div class=\"card\"><div class=\"label\">{H(label)}</div><div class=\"value\">{H(value)}</div><div class=\"note\">{H(note)}</div></div>");
+
+    private static void Table<T>(StringBuilder sb, IReadOnlyList<ResultField<T>> fields, IReadOnlyList<T> items)
+    {
+        var shown = fields.Where(f => f.Shown).ToList();
+        sb.Append("<table><thead><tr>");
+        foreach (var f in shown) sb.Append($"<th>{H(f.Label)}</th>");
+        sb.Append("</tr></thead><tbody>");
+        foreach (var item in items)
+        {
+            sb.Append("<tr>");
+            foreach (var f in shown)
+                sb.Append(f.Kind == FieldKind.Real ? $"<td class=\"n\">{H(f.Display(item))}</td>" : $"<td>{H(f.Display(item))}</td>");
+            sb.Append("</tr>");
+        }
+        sb.Append("</tbody></table>");
+    }
 
     private static void Row(StringBuilder sb, string k, string v) => sb.Append($"<tr><th>{H(k)}</th><td>{v}</td></tr>");
 

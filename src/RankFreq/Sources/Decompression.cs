@@ -14,8 +14,8 @@ public static class Decompression
     {
         if (head.Length >= 2 && head[0] == 0x1F && head[1] == 0x8B) return CompressionKind.Gzip;
         if (head.Length >= 4 && head[0] == 0x28 && head[1] == 0xB5 && head[2] == 0x2F && head[3] == 0xFD) return CompressionKind.Zstd;
-        if (head.Length >= 4 && head[0] == (byte)'B' && head[1] == (byte)'Z' && head[2] == (byte)'h' && head[3] is >= (byte)'1' and <= (byte)'9') return CompressionKind.Bzip2;
-        if (head.Length >= 6 && head[0] == 0xFD && head[1] == 0x37 && head[2] == 0x7A && head[3] == 0x58 && head[4] == 0x5A && head[5] == 0) return CompressionKind.Xz;
+        if (head.Length >= 4 && head.StartsWith("BZh"u8) && head[3] is >= (byte)'1' and <= (byte)'9') return CompressionKind.Bzip2;
+        if (head.StartsWith((ReadOnlySpan<byte>)[0xFD, 0x37, 0x7A, 0x58, 0x5A, 0x00])) return CompressionKind.Xz;
         return CompressionKind.None;
     }
 

@@ -1,3 +1,4 @@
+using RankFreq.Primitives;
 using System.Runtime.CompilerServices;
 using System.Buffers;
 using System.Text;
@@ -12,9 +13,7 @@ namespace RankFreq.Sources;
 /// </summary>
 internal sealed class Utf8Sanitizer(ITextSink sink)
 {
-    private readonly byte[] _hold = new byte[4];
-    private int _holdLen;
-    private byte[] _work = new byte[0];
+    private readonly HoldBack<byte> _held = new();
     private bool _atStart = true;
 
     /// <summary>Bytes replaced so far.</summary>
@@ -22,22 +21,10 @@ internal sealed class Utf8Sanitizer(ITextSink sink)
 
     /// <summary>Feeds raw bytes; <paramref name="final"/> ends the document (a dangling partial sequence is replaced).</summary>
     public void Write(ReadOnlySpan<byte> data, bool final)
-    {
-        if (_holdLen > 0)
-        {
-            int need = _holdLen + data.Length;
-            if (_work.Length < need) _work = new byte[Math.Max(need, 1 << 16)];
-            _hold.AsSpan(0, _holdLen).CopyTo(_work);
-            data.CopyTo(_work.AsSpan(_holdLen));
-            int n = _holdLen;
-            _holdLen = 0;
-            Process(_work.AsSpan(0, n + data.Length), final);
-        }
-        else Process(data, final);
-    }
+        => Process(_held.Join(data), final);
 
     /// <summary>Call at the start of each new file so a byte-order mark there is skipped.</summary>
-    public void Reset() { _atStart = true; _holdLen = 0; }
+    public void Reset() { _atStart = true; _held.Clear(); }
 
     private void Process(ReadOnlySpan<byte> s, bool final)
     {
@@ -54,11 +41,7 @@ internal sealed class Utf8Sanitizer(ITextSink sink)
         if (tail > 0) Hold(s[^tail..]);
     }
 
-    private void Hold(ReadOnlySpan<byte> b)
-    {
-        b.CopyTo(_hold);
-        _holdLen = b.Length;
-    }
+    private void Hold(ReadOnlySpan<byte> b) => _held.Hold(b);
 
     /// <summary>Length of a trailing lead byte plus continuation bytes that could still become a valid sequence.</summary>
     private static int IncompleteTail(ReadOnlySpan<byte> s)

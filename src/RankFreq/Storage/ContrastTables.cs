@@ -1,5 +1,3 @@
-using Parquet;
-using Parquet.Schema;
 using RankFreq.Comparison;
 using RankFreq.Counting;
 
@@ -8,45 +6,13 @@ namespace RankFreq.Storage;
 /// <summary>Parquet tables of a contrast: groups, pairs, and the grouped count table.</summary>
 public static class ContrastTables
 {
-    private static ParquetOptions Options => new() { CompressionMethod = CompressionMethod.Zstd, CompressionLevel = System.IO.Compression.CompressionLevel.Optimal };
-
-    /// <summary>One row per group, columns from <see cref="ContrastFields.GroupFlat"/> (all nullable; NaN written as null).</summary>
+    /// <summary>One row per group, columns from <see cref="ContrastFields.GroupFlat"/> (NaN written as null).</summary>
     public static Task WriteGroupsAsync(string path, ContrastResult r, CancellationToken ct = default) =>
-        WriteRowsAsync(path, "contrast_groups", ContrastFields.GroupFlat, r.Groups, ct);
+        FieldTableFile.WriteAsync(path, "contrast_groups", ContrastFields.GroupFlat, r.Groups, ct);
 
     /// <summary>One row per pair, columns from <see cref="ContrastFields.PairFlat"/>.</summary>
     public static Task WritePairsAsync(string path, ContrastResult r, CancellationToken ct = default) =>
-        WriteRowsAsync(path, "contrast_pairs", ContrastFields.PairFlat, r.Pairs, ct);
-
-    /// <summary>Writes rows of any result type through its field list, atomically.</summary>
-    public static Task WriteRowsAsync<T>(string path, string table, IReadOnlyList<ResultField<T>> fields, IReadOnlyList<T> rows, CancellationToken ct = default) =>
-        AtomicFile.WriteAsync(path, async stream =>
-        {
-            var dataFields = fields.Select(f => f.Kind switch
-            {
-                FieldKind.Text => (DataField)new DataField<string>(f.Name, true),
-                FieldKind.Integer => new DataField<long?>(f.Name),
-                FieldKind.Flag => new DataField<bool?>(f.Name),
-                _ => new DataField<double?>(f.Name),
-            }).ToArray();
-            await using var w = await ParquetWriter.CreateAsync(new ParquetSchema(dataFields), stream, Options, cancellationToken: ct);
-            w.CustomMetadata = new Dictionary<string, string> { ["rankfreq.table"] = table, ["rankfreq.version"] = CountTableMetadata.CurrentVersion };
-            using var rg = w.CreateRowGroup();
-            for (int i = 0; i < fields.Count; i++)
-            {
-                var f = fields[i];
-                var values = rows.Select(f.Get).ToArray();
-                switch (f.Kind)
-                {
-                    case FieldKind.Text: await rg.WriteAsync(dataFields[i], values.Select(v => v as string).ToArray()); break;
-                    case FieldKind.Integer: await rg.WriteAsync<long>(dataFields[i], values.Select(v => v is null ? (long?)null : Convert.ToInt64(v)).ToArray()); break;
-                    case FieldKind.Flag: await rg.WriteAsync<bool>(dataFields[i], values.Select(v => v as bool?).ToArray()); break;
-                    default:
-                        await rg.WriteAsync<double>(dataFields[i], values.Select(v => v is double d && double.IsFinite(d) ? d : (double?)null).ToArray());
-                        break;
-                }
-            }
-        });
+        FieldTableFile.WriteAsync(path, "contrast_pairs", ContrastFields.PairFlat, r.Pairs, ct);
 
     /// <summary>
     /// The grouped count table: the count-table columns with a leading <c>group</c> string column, groups one after

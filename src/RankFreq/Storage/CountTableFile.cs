@@ -66,7 +66,11 @@ public static class CountTableFile
         var count = df.FirstOrDefault(f => f.Name == "count" && f.ClrType == typeof(long));
         var token = df.FirstOrDefault(f => f.Name == "token" && (f.ClrType == typeof(string) || f.ClrType == typeof(ReadOnlyMemory<char>)));
         var id = df.FirstOrDefault(f => f.Name == "token_id" && f.ClrType == typeof(int));
-        if (count is null || token is null) { await r.DisposeAsync(); throw new StorageException($"{path}: not a count table (needs columns token and count)"); }
+        if (count is null || token is null)
+        {
+            await r.DisposeAsync();
+            throw new StorageException($"{path}: not a count table (needs columns token and count)");
+        }
         return new CountTableReader(path, r, meta, token, id, count);
     }
 }

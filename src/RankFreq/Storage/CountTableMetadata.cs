@@ -58,7 +58,9 @@ public sealed record CountTableMetadata(
 
     internal static CountTableMetadata FromFooter(IReadOnlyDictionary<string, string> f, string path)
     {
-        string Get(string k) => f.TryGetValue("rankfreq." + k, out var v) ? v : throw new StorageException($"{path}: not a RankFreq count table (footer key rankfreq.{k} missing)");
+        string Get(string k) => f.TryGetValue("rankfreq." + k, out var v)
+            ? v
+            : throw new StorageException($"{path}: not a RankFreq count table (footer key rankfreq.{k} missing)");
         var inputs = new List<InputInfo>();
         if (f.TryGetValue("rankfreq.inputs", out var js))
             using (var doc = System.Text.Json.JsonDocument.Parse(js))
@@ -67,7 +69,8 @@ public sealed record CountTableMetadata(
         return new CountTableMetadata(Get("tokenizer"), Get("normalization"), Get("case"),
             long.Parse(Get("tokens"), CultureInfo.InvariantCulture), long.Parse(Get("types"), CultureInfo.InvariantCulture), inputs,
             f.GetValueOrDefault("rankfreq.version", "?"),
-            DateTime.Parse(f.GetValueOrDefault("rankfreq.created_utc", "2000-01-01T00:00:00Z"), CultureInfo.InvariantCulture, DateTimeStyles.AdjustToUniversal | DateTimeStyles.AssumeUniversal),
+            DateTime.Parse(f.GetValueOrDefault("rankfreq.created_utc", "2000-01-01T00:00:00Z"), CultureInfo.InvariantCulture,
+                DateTimeStyles.AdjustToUniversal | DateTimeStyles.AssumeUniversal),
             long.Parse(f.GetValueOrDefault("rankfreq.redacted_below", "0"), CultureInfo.InvariantCulture));
     }
 }

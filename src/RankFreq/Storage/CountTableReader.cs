@@ -47,14 +47,14 @@ public sealed class CountTableReader : IAsyncDisposable, ICountRows
     /// <summary>The frequency spectrum of the table's counts.</summary>
     public FrequencySpectrum ReadSpectrum()
     {
-        var d = new Dictionary<long, long>();
+        var spectrum = new SpectrumBuilder();
         foreach (var b in Batches())
             foreach (var c in b.Counts)
             {
                 if (c <= 0) throw new StorageException($"{Path}: count column holds a non-positive count ({c})");
-                d[c] = d.GetValueOrDefault(c) + 1;
+                spectrum.Add(c);
             }
-        return FrequencySpectrum.FromPairs(d.Select(kv => (kv.Key, kv.Value)));
+        return spectrum.Build();
     }
 
     /// <inheritdoc/>

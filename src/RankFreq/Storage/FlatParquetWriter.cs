@@ -43,7 +43,8 @@ internal sealed class FlatParquetWriter : IDisposable
     /// <summary>The writer name recorded in the footer.</summary>
     public string CreatedBy { get; init; } = "rankfreq";
 
-    /// <summary>Writes one row group; <paramref name="data"/> holds, per column, a <c>string?[]</c>, <c>int[]</c> or <c>long[]</c> of <paramref name="rows"/> values.</summary>
+    /// <summary>Writes one row group; <paramref name="data"/> holds, per column, a <c>string?[]</c>, <c>int[]</c> or
+    /// <c>long[]</c> of <paramref name="rows"/> values.</summary>
     public void WriteRowGroup(int rows, IReadOnlyList<Array> data)
     {
         if (data.Count != _columns.Count) throw new ArgumentException("one array per column");

@@ -8,7 +8,10 @@ namespace RankFreq.Storage;
 /// <summary>Small Parquet tables of the profile: spectrum and growth.</summary>
 public static class TableFiles
 {
-    private static ParquetOptions Options => new() { CompressionMethod = CompressionMethod.Zstd, CompressionLevel = System.IO.Compression.CompressionLevel.Optimal };
+    private static ParquetOptions Options => new()
+    {
+        CompressionMethod = CompressionMethod.Zstd, CompressionLevel = System.IO.Compression.CompressionLevel.Optimal,
+    };
 
     /// <summary>Columns frequency (int64) and types (int64): how many types occur exactly that often.</summary>
     public static Task WriteSpectrumAsync(string path, FrequencySpectrum s, CancellationToken ct = default) =>
@@ -43,6 +46,6 @@ public static class TableFiles
             await rg.WriteAsync<long>(o, g.Observed);
             await rg.WriteAsync<double>(e, g.Expected);
             await rg.WriteAsync<double>(b, g.Binomial);
-            await rg.WriteAsync<double>(h, g.Tokens.Select(t => g.HeapsK * Math.Pow(t, g.HeapsBeta)).ToArray());
+            await rg.WriteAsync<double>(h, g.Tokens.Select(t => g.HeapsAt(t)).ToArray());
         });
 }

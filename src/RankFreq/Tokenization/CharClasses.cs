@@ -41,7 +41,11 @@ internal static class CharClasses
                 case UnicodeCategory.UppercaseLetter: case UnicodeCategory.TitlecaseLetter: b |= Upperish | Letter; break;
                 case UnicodeCategory.LowercaseLetter: b |= Lowerish | Letter; break;
                 case UnicodeCategory.ModifierLetter: case UnicodeCategory.OtherLetter: b |= Upperish | Lowerish | Letter; break;
-                case UnicodeCategory.NonSpacingMark: case UnicodeCategory.SpacingCombiningMark: case UnicodeCategory.EnclosingMark: b |= Upperish | Lowerish; break;
+                case UnicodeCategory.NonSpacingMark:
+                case UnicodeCategory.SpacingCombiningMark:
+                case UnicodeCategory.EnclosingMark:
+                    b |= Upperish | Lowerish;
+                    break;
                 case UnicodeCategory.DecimalDigitNumber: case UnicodeCategory.LetterNumber: case UnicodeCategory.OtherNumber: b |= Number; break;
             }
             t[i] = b;

@@ -1,3 +1,4 @@
+using RankFreq.Primitives;
 using System.Buffers;
 using System.Text;
 
@@ -25,21 +26,21 @@ public sealed class GraphemeTokenizer : ITokenizer
 
     private sealed class Session(ITokenSink sink) : ITokenizerSession
     {
-        private readonly StringBuilder _pending = new();
+        private readonly HoldBack<char> _held = new();
         private byte[] _bytes = new byte[64];
 
         public void Feed(ReadOnlySpan<byte> utf8, bool eod)
         {
-            _pending.Append(Encoding.UTF8.GetString(utf8));
-            string text = _pending.ToString();
-            _pending.Clear();
+            int n = Encoding.UTF8.GetChars(utf8, _held.AppendSpan(Encoding.UTF8.GetMaxCharCount(utf8.Length)));
+            _held.Advance(n);
+            var text = _held.Join([]);
             int i = 0;
             while (i < text.Length)
             {
-                int len = System.Globalization.StringInfo.GetNextTextElementLength(text.AsSpan(i));
+                int len = System.Globalization.StringInfo.GetNextTextElementLength(text[i..]);
                 // The last cluster may continue in the next block (combining marks, ZWJ sequences).
-                if (i + len == text.Length && !eod) { _pending.Append(text.AsSpan(i)); return; }
-                var cluster = text.AsSpan(i, len);
+                if (i + len == text.Length && !eod) { _held.Hold(text[i..]); return; }
+                var cluster = text.Slice(i, len);
                 i += len;
                 if (cluster.Length == 1 && char.IsWhiteSpace(cluster[0])) continue;
                 if (cluster.Length == 2 && cluster[0] == '\r' && cluster[1] == '\n') continue;

@@ -1,3 +1,4 @@
+using RankFreq.Primitives;
 using System.IO.Compression;
 using System.Reflection;
 using System.Text;
@@ -229,26 +230,23 @@ public sealed class SubwordTokenizer : ITokenizer
         private const int CutAt = 1 << 20;
         private const int CacheLimit = 1 << 20;
         private readonly ChunkCache _cache = new(CacheLimit);
-        private char[] _buf = new char[4096];
-        private int _len;
+        private readonly HoldBack<char> _text = new();
 
         public void Feed(ReadOnlySpan<byte> utf8, bool eod)
         {
-            int need = _len + Encoding.UTF8.GetMaxCharCount(utf8.Length);
-            if (_buf.Length < need) Array.Resize(ref _buf, Math.Max(need, _buf.Length * 2));
-            _len += Encoding.UTF8.GetChars(utf8, _buf.AsSpan(_len));
+            // decoded text is held until a cut that cannot change a chunk (or the document's end)
+            _text.Advance(Encoding.UTF8.GetChars(utf8, _text.AppendSpan(Encoding.UTF8.GetMaxCharCount(utf8.Length))));
             if (eod)
             {
-                Encode(_buf.AsSpan(0, _len));
-                _len = 0;
+                Encode(_text.Held);
+                _text.Clear();
                 return;
             }
-            if (_len < CutAt) return;
-            int cut = SafeCut(_buf.AsSpan(0, _len));
+            if (_text.Length < CutAt) return;
+            int cut = SafeCut(_text.Held);
             if (cut <= 0) return;
-            Encode(_buf.AsSpan(0, cut));
-            _buf.AsSpan(cut, _len - cut).CopyTo(_buf);
-            _len -= cut;
+            Encode(_text.Held[..cut]);
+            _text.Consume(cut);
         }
 
         internal static int SafeCut(ReadOnlySpan<char> t)

@@ -1,3 +1,4 @@
+using RankFreq.Primitives;
 using System.Buffers;
 using System.Text;
 
@@ -25,20 +26,20 @@ public sealed class WhitespaceTokenizer : ITokenizer
 
     private sealed class Session(ITokenSink sink) : ITokenizerSession
     {
-        private readonly ArrayBufferWriter<byte> _carry = new();
+        private readonly HoldBack<byte> _held = new();
 
         public void Feed(ReadOnlySpan<byte> s, bool eod)
         {
             int i = 0, start = -1;
-            if (_carry.WrittenCount > 0)
+            if (_held.Length > 0)
             {
                 // Extend the held token up to the first white space of this block.
                 int j = 0;
                 while (j < s.Length && !IsSpaceAt(s, j, out _)) j += Step(s, j);
-                _carry.Write(s[..j]);
-                if (j == s.Length && !eod && _carry.WrittenCount <= WordTokenizer.MaxTokenBytes) return;
-                sink.AddToken(_carry.WrittenSpan);
-                _carry.ResetWrittenCount();
+                _held.Append(s[..j]);
+                if (j == s.Length && !eod && _held.Length <= WordTokenizer.MaxTokenBytes) return;
+                sink.AddToken(_held.Held);
+                _held.Clear();
                 i = j;
             }
             while (i < s.Length)
@@ -54,7 +55,7 @@ public sealed class WhitespaceTokenizer : ITokenizer
             if (start >= 0)
             {
                 if (eod) sink.AddToken(s[start..]);
-                else _carry.Write(s[start..]);
+                else _held.Append(s[start..]);
             }
         }
 

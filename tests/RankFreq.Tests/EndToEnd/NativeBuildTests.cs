@@ -34,7 +34,7 @@ public class NativeBuildTests
         using var d = new TempDir();
         string repo = Repo.Root;
         string exe = Publish(repo, d);
-        string demo = Path.Combine(repo, "corpora-demo");
+        string demo = Path.Combine(repo, "corpora-demo", "corpus");
 
         // count: same totals as the library in process
         var (code, o, e) = Run(exe, "count", demo, "-o", d["w.parquet"], "--json");

@@ -39,7 +39,7 @@ public class ProfileTests
 
     internal static string DemoProfile(TempDir d)
     {
-        var demo = Path.Combine(Repo.Root, "corpora-demo");
+        var demo = Path.Combine(Repo.Root, "corpora-demo", "corpus");
         var (code, _, e) = Cli.Run("profile", demo, "-o", d["demo"], "--reps", "100", "--ci-reps", "50", "-q");
         Assert.True(code == 0, e);
         return d["demo"];

@@ -1,8 +1,8 @@
 using System.Text.Json;
-using RankFreq.Reporting;
+using RankFreq.Primitives;
 using Xunit;
 
-namespace RankFreq.Tests.Reporting;
+namespace RankFreq.Tests.Primitives;
 
 public class JsonTextTests
 {

@@ -3,7 +3,7 @@ using System.Globalization;
 using System.Text;
 using System.Text.Json;
 
-namespace RankFreq.Reporting;
+namespace RankFreq.Primitives;
 
 /// <summary>
 /// Writes the summary shapes used here (dictionaries with string keys, lists, strings, numbers, booleans, null) as
@@ -12,11 +12,12 @@ namespace RankFreq.Reporting;
 /// </summary>
 public static class JsonText
 {
-    /// <summary>The JSON text of <paramref name="value"/>, indented.</summary>
-    public static string Write(object? value)
+    /// <summary>The JSON text of <paramref name="value"/>, indented unless <paramref name="indented"/> is false.
+    /// Doubles are written in their shortest round-trip form.</summary>
+    public static string Write(object? value, bool indented = true)
     {
         var buf = new System.Buffers.ArrayBufferWriter<byte>();
-        using (var w = new Utf8JsonWriter(buf, new JsonWriterOptions { Indented = true }))
+        using (var w = new Utf8JsonWriter(buf, new JsonWriterOptions { Indented = indented }))
             Value(w, value);
         return Encoding.UTF8.GetString(buf.WrittenSpan);
     }
