@@ -1,4 +1,5 @@
 using System.CommandLine;
+using System.CommandLine.Help;
 using System.Globalization;
 using RankFreq.Primitives;
 using RankFreq.Tokenization;
@@ -17,15 +18,32 @@ public static class CliApp
         var root = Build(stdout, stderr);
         var parsed = root.Parse(args);
         Verbose = parsed.GetValue(VerboseOption);
+        var command = parsed.CommandResult.Command;
+        string tryHelp = command == root ? "Try 'rankfreq --help'." : $"Try 'rankfreq {command.Name} --help'.";
+        if (Slips.Find(parsed, root, args) is { } slip)
+        {
+            stderr.WriteLine($"rankfreq: {slip}");
+            stderr.WriteLine(tryHelp);
+            return Usage;
+        }
+        if (args.Length == 0)
+        {
+            stderr.WriteLine("rankfreq: no command given; the commands are "
+                + string.Join(", ", root.Subcommands.Select(c => c.Name)));
+            stderr.WriteLine(tryHelp);
+            return Usage;
+        }
         if (parsed.Errors.Count > 0)
         {
             foreach (var e in parsed.Errors) stderr.WriteLine($"rankfreq: {e.Message}");
-            stderr.WriteLine("Try 'rankfreq --help'.");
+            stderr.WriteLine(tryHelp);
             return Usage;
         }
         try
         {
-            return await parsed.InvokeAsync(new InvocationConfiguration { Output = stdout, Error = stderr });
+            int code = await parsed.InvokeAsync(new InvocationConfiguration { Output = stdout, Error = stderr });
+            if (parsed.Action is HelpAction) Examples.Write(stdout, command == root ? "rankfreq" : command.Name);
+            return code;
         }
         catch (IOException e) when (IsBrokenPipe(e)) { return Ok; }
     }
@@ -52,19 +70,24 @@ public static class CliApp
             return Ok;
         });
         root.Subcommands.Add(tok);
+        root.Subcommands.Add(Completion.Build(stdout, () => root));
         root.Options.Add(VerboseOption);
         return root;
     }
 
     /// <summary>
     /// Maps an exception to a message and exit code: bad input or environment (<see cref="RankFreqException"/>) 1,
-    /// usage 2, interruption 130; anything else is a bug: 70 with a one-line "internal error", the detail only
-    /// under <c>--verbose</c>.
+    /// usage 2 (the CLI's <see cref="UsageException"/> or the library's <see cref="SettingsException"/>: a setting no
+    /// input could make valid), interruption 130; anything else is a bug: 70 with a one-line "internal error", the
+    /// detail only under <c>--verbose</c>.
     /// </summary>
     internal static int Fail(TextWriter stderr, Exception e)
     {
         switch (e)
         {
+            case SettingsException:
+                stderr.WriteLine($"rankfreq: {e.Message}");
+                return Usage;
             case RankFreqException r:
                 stderr.WriteLine($"rankfreq: error: {e.Message}"
                     + (r.Setting is { } s && OptionFor.TryGetValue(s, out var option) ? $" (see {option})" : ""));

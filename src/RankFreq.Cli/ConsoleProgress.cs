@@ -23,18 +23,18 @@ internal sealed class ConsoleProgress(TextWriter err, bool quiet) : IProgress<Co
         {
             double frac = Math.Min(1, p.DoneBytes / (double)p.TotalBytes);
             var remain = TimeSpan.FromSeconds(p.Elapsed.TotalSeconds * (1 - frac) / Math.Max(frac, 1e-9));
-            left = $"  {frac:P0} of {Human.Bytes(p.TotalBytes)}, about {remain:mm\\:ss} left";
+            left = $"  {frac:P0} of {Human.Bytes(p.TotalBytes)}, about {Human.Duration(remain)} left";
         }
-        string line = $"counting: {Human.Bytes(p.DoneBytes)} read, {rate / 1e6:F1} M tokens/s{left}";
+        string line = $"counting: {Human.Bytes(p.DoneBytes)} read, {rate / 1e6:F1} M tokens/s, {Human.Duration(p.Elapsed)} elapsed{left}";
         lock (this)
         {
-            if (_tty) { err.Write("\r" + line.PadRight(78)); _drew = true; }
+            if (_tty) { err.Write("\r" + line.PadRight(96)); _drew = true; }
             else err.WriteLine(line);
         }
     }
 
     public void Done()
     {
-        lock (this) if (_drew) { err.Write("\r" + new string(' ', 78) + "\r"); _drew = false; }
+        lock (this) if (_drew) { err.Write("\r" + new string(' ', 96) + "\r"); _drew = false; }
     }
 }

@@ -12,14 +12,19 @@ internal sealed class CorpusOptions
     public readonly Option<string> Format = new("--format") { Description = "Input format: auto, text, jsonl, parquet", DefaultValueFactory = _ => "auto" };
     public readonly Option<string> TextField = new("--text-field") { Description = "JSON Lines field with the text (dots for nested objects)", DefaultValueFactory = _ => "text" };
     public readonly Option<string> TextColumn = new("--text-column") { Description = "Parquet column with the text", DefaultValueFactory = _ => "text" };
-    public readonly Option<string[]> Include = new("--include") { Description = "Glob a file in a folder must match (repeatable)", AllowMultipleArgumentsPerToken = false };
-    public readonly Option<string[]> Exclude = new("--exclude") { Description = "Glob that drops files in a folder (repeatable)" };
+    public readonly Option<string[]> Include = new("--include")
+    {
+        Description = "Glob a file in a folder must match; without a / it matches names at any depth (repeatable)",
+        AllowMultipleArgumentsPerToken = false,
+    };
+    public readonly Option<string[]> Exclude = new("--exclude") { Description = "Glob that drops files in a folder, as --include (repeatable)" };
     public readonly Option<string> MaxRecord = new("--max-record") { Description = "Longest JSON Lines record accepted", DefaultValueFactory = _ => "64M" };
     public readonly Option<bool> Strict = new("--strict") { Description = "Make a malformed JSON Lines record an error instead of skipping it" };
-    public readonly Option<int> Threads = new("--threads") { Description = "Worker threads (default: all cores)" };
+    public readonly Option<int> Threads = WholeNumber.Option<int>("--threads", 0, "Worker threads (0 or left out: all cores)");
     public readonly Option<string?> Memory = new("--memory") { Description = "Memory for count tables before spilling to disk (default: a quarter of RAM), e.g. 2G" };
-    public readonly Option<string?> Shard = new("--shard") { Description = "Count only part K of N of the sorted input files, as K/N" };
-    public readonly Option<long> RedactBelow = new("--redact-below") { Description = "Write token strings of types with count below K as null (counts kept)" };
+    public readonly Option<string?> Shard = new("--shard") { Description = "Count only part K of N of the sorted input files, as K/N (shards split by file)" };
+    public readonly Option<long> RedactBelow = WholeNumber.Option<long>("--redact-below", 0,
+        "Write token strings of types with count below K as null (counts kept)");
     public readonly Option<string?> TempDir = new("--temp-dir") { Description = "Folder for spill runs (default: system temporary folder)" };
     public readonly Option<bool> Quiet = new("--quiet", "-q") { Description = "No progress or summary on the console" };
     public readonly Option<bool> Json = new("--json") { Description = "Print a machine-readable summary on stdout" };

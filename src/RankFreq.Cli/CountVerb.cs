@@ -24,6 +24,7 @@ internal static class CountVerb
                 var result = await Task.Run(() => CountJob.RunAsync(pr.GetValue(common.Inputs)!, settings, pr.GetValue(output)!,
                     pr.GetValue(common.RedactBelow), progress, ct), ct);
                 progress.Done();
+                OutputName.WarnIfNotParquet(stderr, pr.GetValue(output), "the count table");
                 var s = result.Summary;
                 foreach (var w in result.Warnings) stderr.WriteLine($"rankfreq: warning: {w}");
                 if (json) stdout.WriteLine(JsonText.Write(SummaryJson(s)));

@@ -9,11 +9,13 @@ namespace RankFreq.Cli;
 /// <summary>Options of the tail fit, shared by fit and profile.</summary>
 internal sealed class FitCliOptions(int defaultReps)
 {
-    public readonly Option<int> MinTail = new("--min-tail") { Description = "Fewest tail points an xmin candidate may leave", DefaultValueFactory = _ => 50 };
-    public readonly Option<long> Xmin = new("--xmin") { Description = "Fix xmin instead of choosing it by the KS criterion" };
-    public readonly Option<int> Reps = new("--reps") { Description = $"Goodness-of-fit bootstrap replicates (0 skips; 2,500 give p to ±0.01)", DefaultValueFactory = _ => defaultReps };
-    public readonly Option<int> CiReps = new("--ci-reps") { Description = "Bootstrap replicates for the uncertainty of alpha and xmin (0 skips)", DefaultValueFactory = _ => Math.Min(1000, Math.Max(defaultReps, 200)) };
-    public readonly Option<ulong> Seed = new("--seed") { Description = "Seed of every random draw", DefaultValueFactory = _ => 1UL };
+    public readonly Option<int> MinTail = WholeNumber.Option<int>("--min-tail", 2, "Fewest tail points an xmin candidate may leave", 50);
+    public readonly Option<long> Xmin = WholeNumber.Option<long>("--xmin", 1, "Fix xmin instead of choosing it by the KS criterion");
+    public readonly Option<int> Reps = WholeNumber.Option<int>("--reps", 0,
+        "Goodness-of-fit bootstrap replicates (0 skips; 2,500 give p to ±0.01)", defaultReps);
+    public readonly Option<int> CiReps = WholeNumber.Option<int>("--ci-reps", 0,
+        "Bootstrap replicates for the uncertainty of alpha and xmin (0 skips)", Math.Min(1000, Math.Max(defaultReps, 200)));
+    public readonly Option<ulong> Seed = WholeNumber.Option<ulong>("--seed", 0, "Seed of every random draw", 1UL);
     public readonly Option<string> Alternatives = new("--alternatives") { Description = "Families to compare with: all, none, or a list of lognormal,exponential,stretched_exponential,power_law_cutoff", DefaultValueFactory = _ => "all" };
 
     public void AddTo(Command c)

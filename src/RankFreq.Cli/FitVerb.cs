@@ -11,9 +11,13 @@ internal static class FitVerb
 {
     public static Command Build(TextWriter stdout, TextWriter stderr)
     {
-        var input = new Argument<string>("input") { Description = "A count table (.parquet) or a text list of counts (one a line, or 'value types')" };
+        var input = new Argument<string>("input")
+        {
+            Description = "A count table or spectrum table (.parquet), or a text list: counts, 'value types' or "
+                + "'count token' lines; - for standard input",
+        };
         var fo = new FitCliOptions(2500);
-        var threads = new Option<int>("--threads") { Description = "Worker threads (results do not depend on it)" };
+        var threads = WholeNumber.Option<int>("--threads", 0, "Worker threads (0 or left out: all cores; results do not depend on it)");
         var json = new Option<bool>("--json") { Description = "Print the fit as JSON on stdout" };
         var quiet = new Option<bool>("--quiet", "-q") { Description = "No progress or summary" };
         var output = new Option<string?>("--out", "-o") { Description = "Write the fit table (and X.alternatives.parquet beside it)" };
@@ -28,9 +32,12 @@ internal static class FitVerb
                 var progress = new FitConsoleProgress(stderr, pr.GetValue(quiet));
                 var r = await FitJob.RunAsync(pr.GetValue(input)!, options, pr.GetValue(output), progress, ct);
                 progress.Done();
+                foreach (var note in r.Notes ?? []) stderr.WriteLine($"rankfreq: note: {note}");
+                OutputName.WarnIfNotParquet(stderr, pr.GetValue(output), "the fit table");
                 var fit = r.Fit;
+                string name = pr.GetValue(input) is "-" ? "standard input" : pr.GetValue(input)!;
                 if (pr.GetValue(json)) stdout.WriteLine(JsonText.Write(FitJson(fit)));
-                else if (!pr.GetValue(quiet)) FitSummary.Write(stdout, fit, $"{pr.GetValue(input)}: {r.Description}, {r.Spectrum.TypeCount:N0} types");
+                else if (!pr.GetValue(quiet)) FitSummary.Write(stdout, fit, $"{name}: {r.Description}, {r.Spectrum.TypeCount:N0} types");
                 return CliApp.Ok;
             }
             catch (Exception e) { return CliApp.Fail(stderr, e); }

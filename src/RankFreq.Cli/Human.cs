@@ -14,6 +14,11 @@ internal static class Human
         _ => $"{b} B",
     };
 
+    /// <summary>"0:42", "12:05", "1:02:09".</summary>
+    public static string Duration(TimeSpan t) => t.TotalHours >= 1
+        ? $"{(int)t.TotalHours}:{t.Minutes:00}:{t.Seconds:00}"
+        : $"{t.Minutes}:{t.Seconds:00}";
+
     /// <summary>"1 table", "3 tables".</summary>
     public static string Count(long n, string noun) => n == 1 ? $"1 {noun}" : $"{n:N0} {noun}s";
 }

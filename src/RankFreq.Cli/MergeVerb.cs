@@ -21,6 +21,7 @@ internal static class MergeVerb
             {
                 var s = await MergeJob.RunAsync(pr.GetValue(tables)!, pr.GetValue(output)!, CliApp.ParseSize(pr.GetValue(memory), "--memory"), pr.GetValue(temp), ct);
                 foreach (var w in s.Warnings) stderr.WriteLine($"rankfreq: warning: {w}");
+                OutputName.WarnIfNotParquet(stderr, pr.GetValue(output), "the merged table");
                 if (pr.GetValue(json))
                     stdout.WriteLine(JsonText.Write(new Dictionary<string, object> { ["tables"] = s.Tables, ["tokens"] = s.Tokens, ["types"] = s.Types, ["spilled_runs"] = s.SpilledRuns, ["seconds"] = Math.Round(s.Seconds, 3) }));
                 else if (!pr.GetValue(quiet))

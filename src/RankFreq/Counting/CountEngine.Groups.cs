@@ -61,7 +61,7 @@ public static partial class CountEngine
         try
         {
             long tokens = pass.UnitTokens.Sum();
-            if (tokens == 0) throw NoTokens(files, skipped);
+            if (tokens == 0) throw NoTokensFound(pass);
             foreach (var g in parts)
             {
                 ct.ThrowIfCancellationRequested();

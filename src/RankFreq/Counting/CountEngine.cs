@@ -28,7 +28,7 @@ public static partial class CountEngine
         try
         {
             long tokens = pass.UnitTokens.Sum();
-            if (tokens == 0) throw NoTokens(files, skipped);
+            if (tokens == 0) throw NoTokensFound(pass);
             var unitStart = new long[pass.Units.Count];
             for (int i = 1; i < pass.Units.Count; i++) unitStart[i] = unitStart[i - 1] + pass.UnitTokens[i - 1];
             var checkpoints = GrowthCurve.Checkpoints(tokens);
@@ -49,13 +49,14 @@ public static partial class CountEngine
         }
     }
 
-    private static CountingException NoTokens(IReadOnlyList<InputFile> files, IReadOnlyList<SkippedFile> skipped) =>
-        new($"no tokens found in {string.Join(", ", files.Select(f => f.Path))}"
-            + (skipped.Count > 0 ? $" ({skipped.Count} file(s) skipped as binary)" : ""));
+    /// <summary>The error of a pass that found no tokens, saying why where it can.</summary>
+    private static CountingException NoTokensFound(Pass pass) =>
+        new(NoTokens.Message(pass.Files, pass.Skipped, pass.Stats(), pass.Source));
 
     /// <summary>What one counting pass left: the workers' tables, per-unit token counts and the run's facts.</summary>
     private sealed record Pass(ITokenizer Tokenizer, IReadOnlyList<InputFile> Files, IReadOnlyList<SkippedFile> Skipped, IReadOnlyList<WorkUnit> Units,
-        long[] UnitTokens, List<Worker> Workers, SpillSet Spill, long Budget, int Threads, Stopwatch Clock)
+        long[] UnitTokens, List<Worker> Workers, SpillSet Spill, long Budget, int Threads, Stopwatch Clock, SourceOptions Source,
+        long[] StdinBytes)
     {
         public SourceStats Stats()
         {
@@ -69,7 +70,7 @@ public static partial class CountEngine
             var stats = Stats();
             return new CountSummary(Tokenizer.Spec, Tokenizer.Normalization, Tokenizer.CaseRule, tokens, types,
                 stats.StoredBytes, stats.TextBytes, stats.ReplacedBytes, stats.Records, stats.MalformedRecords, stats.MissingField,
-                Skipped, Files.Select(f => new InputInfo(f.Path, f.Length)).ToList(), Threads, Spill.Runs + Workers.Sum(w => w.GroupRuns), Clock.Elapsed.TotalSeconds);
+                Skipped, Files.Select(f => new InputInfo(f.Path, f.IsStdin ? Interlocked.Read(ref StdinBytes[0]) : f.Length)).ToList(), Threads, Spill.Runs + Workers.Sum(w => w.GroupRuns), Clock.Elapsed.TotalSeconds);
         }
     }
 
@@ -93,6 +94,7 @@ public static partial class CountEngine
         var groupSpills = groups is null ? null : new System.Collections.Concurrent.ConcurrentDictionary<string, SpillSet>(StringComparer.Ordinal);
         var workers = new List<Worker>();
         long done = 0;
+        var stdinBytes = new long[1];
         using var timer = progress is null ? null : new Timer(_ =>
             progress.Report(new CountProgress(Interlocked.Read(ref done), totalBytes, workers.ToArray().Sum(w => w.Tokens), sw.Elapsed)), null, 500, 500);
         try
@@ -113,7 +115,11 @@ public static partial class CountEngine
                 {
                     w.Begin(unit.Index);
                     if (groups is { PerFile: true }) w.BeginGroup(groups.LabelOfFile(unit.File.Path));
-                    InputReader.Read(unit, source, w, w.Stats, n => Interlocked.Add(ref done, n), ct);
+                    InputReader.Read(unit, source, w, w.Stats, n =>
+                    {
+                        Interlocked.Add(ref done, n);
+                        if (unit.File.IsStdin) Interlocked.Add(ref stdinBytes[0], n);
+                    }, ct);
                     unitTokens[unit.Index] = w.End();
                     return w;
                 },
@@ -131,7 +137,7 @@ public static partial class CountEngine
             DisposeAll(spill, groupSpills);
             throw;
         }
-        return new Pass(tokenizer, files, skipped, units, unitTokens, workers, spill, budget, threads, sw);
+        return new Pass(tokenizer, files, skipped, units, unitTokens, workers, spill, budget, threads, sw, source, stdinBytes);
     }
 
     private static void DisposeAll(SpillSet spill, System.Collections.Concurrent.ConcurrentDictionary<string, SpillSet>? groups)

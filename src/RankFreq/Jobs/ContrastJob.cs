@@ -46,7 +46,9 @@ public static class ContrastJob
             ? settings with { Key = GroupKey.FromTable(settings.GroupsFile ?? throw new ArgumentException("a group key or a groups file is needed", nameof(settings))) }
             : settings;
         var key = s.Key!;
-        using var counted = CountGroups(inputs, s.Count, key, countProgress, ct);
+        // a folder input never reads this run's own output folder
+        var count = s.OutputDirectory is { } outDir ? s.Count with { Source = (s.Count.Source ?? new()).Skipping(outDir) } : s.Count;
+        using var counted = CountGroups(inputs, count, key, countProgress, ct);
         var byLabel = counted.Groups.ToDictionary(g => g.Group, StringComparer.Ordinal);
         var ordered = key.Order(byLabel.Keys).Select(l => byLabel[l]).ToList();
         var spectra = ordered.Select(g => new GroupSpectrum(g.Group, g.Spectrum, g.Documents)).ToList();

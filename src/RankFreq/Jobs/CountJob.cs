@@ -1,4 +1,5 @@
 using RankFreq.Counting;
+using RankFreq.Primitives;
 using RankFreq.Sources;
 using RankFreq.Storage;
 using RankFreq.Tokenization;
@@ -31,7 +32,8 @@ public static class CountJob
     public static async Task<CountJobResult> RunAsync(IReadOnlyList<string> inputs, CountSettings settings, string output,
         long redactBelow = 0, IProgress<CountProgress>? progress = null, CancellationToken ct = default)
     {
-        using var result = Count(inputs, settings, progress, ct);
+        // the table is never its own input (a second run writing into a folder it counts)
+        using var result = Count(inputs, settings with { Source = (settings.Source ?? new()).Skipping(output) }, progress, ct);
         var meta = CountTableMetadata.From(result.Summary, redactBelow);
         await CountTableFile.WriteAsync(output, result.Rows, result.HasTokenIds, meta, ct);
         return new CountJobResult(result.Summary, output, Warnings(result.Summary));
@@ -45,7 +47,11 @@ public static class CountJob
     {
         if (settings.ShardCount <= 0) return files;
         if (settings.ShardIndex < 1 || settings.ShardIndex > settings.ShardCount)
-            throw new CountingException($"shard {settings.ShardIndex}/{settings.ShardCount}: K must be between 1 and N");
-        return files.Where((_, i) => i % settings.ShardCount == settings.ShardIndex - 1).ToList();
+            throw new SettingsException($"shard {settings.ShardIndex}/{settings.ShardCount}: K must be between 1 and N");
+        var part = files.Where((_, i) => i % settings.ShardCount == settings.ShardIndex - 1).ToList();
+        if (part.Count == 0)
+            throw new CountingException($"shard {settings.ShardIndex}/{settings.ShardCount} has no files: shards split by "
+                + $"file, and the inputs hold {files.Count} file{(files.Count == 1 ? "" : "s")}, so N can be at most {files.Count}");
+        return part;
     }
 }

@@ -14,7 +14,9 @@ public static class ProfileJob
     public static async Task<ProfileResult> RunAsync(IReadOnlyList<string> inputs, ProfileSettings s, IProgress<CountProgress>? countProgress = null,
         IProgress<FitProgress>? fitProgress = null, CancellationToken ct = default)
     {
-        using var counted = CountJob.Count(inputs, s.Count, countProgress, ct);
+        // the output folder is never an input, so a second run over a folder holding it does not read the first's tables
+        var count = s.Count with { Source = (s.Count.Source ?? new()).Skipping(s.OutputDirectory) };
+        using var counted = CountJob.Count(inputs, count, countProgress, ct);
         var warnings = CountJob.Warnings(counted.Summary);
         var fit = TailFitter.Fit(counted.Spectrum, s.Fit, fitProgress, ct);
         var lex = Lexicon.Summarize(counted.Spectrum);
@@ -60,7 +62,8 @@ public static class ProfileJob
         string summaryJson = JsonText.Write(summary);
         await AtomicFile.WriteTextAsync(summaryPath, summaryJson);
 
-        string title = s.Title ?? (inputs.Count == 1 ? Path.GetFileName(Path.TrimEndingDirectorySeparator(Path.GetFullPath(inputs[0]))) : $"{inputs.Count} inputs");
+        string title = s.Title ?? (inputs.Count != 1 ? $"{inputs.Count} inputs" : inputs[0] == "-" ? "standard input"
+            : Path.GetFileName(Path.TrimEndingDirectorySeparator(Path.GetFullPath(inputs[0]))));
         string reportPath = Path.Combine(dir, "report.html");
         await AtomicFile.WriteTextAsync(reportPath, ReportHtml.Build(title, sum, fit, lex, growth, rendered, s.RedactBelow));
         return new ProfileResult(sum, fit, lex, growth, plots, reportPath, summaryPath, summaryJson, warnings);

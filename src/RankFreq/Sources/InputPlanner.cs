@@ -20,10 +20,8 @@ public static class InputPlanner
             if (input == "-") { stdin = true; continue; }
             if (Directory.Exists(input))
             {
-                var m = new Matcher(StringComparison.Ordinal);
-                if (options.Include is { Count: > 0 } inc) m.AddIncludePatterns(inc); else m.AddInclude("**/*");
-                if (options.Exclude is { Count: > 0 } exc) m.AddExcludePatterns(exc);
-                foreach (var f in m.GetResultsInFullPath(input))
+                var found = FolderFiles(input, options);
+                foreach (var f in found)
                     paths.Add(System.IO.Path.GetRelativePath(Environment.CurrentDirectory, f) is var rel && !rel.StartsWith("..") ? rel : f);
             }
             else if (File.Exists(input)) paths.Add(input);
@@ -63,6 +61,33 @@ public static class InputPlanner
             files.Add(f);
         }
         return (files, skipped);
+    }
+
+    /// <summary>
+    /// The files under <paramref name="folder"/> that the include and exclude globs select, leaving out the
+    /// <see cref="SourceOptions.SkipPaths"/>. A glob without a '/' matches file names at any depth, as people
+    /// expect of <c>*.txt</c>; one with a '/' is relative to the folder. Throws when nothing is selected, saying why.
+    /// </summary>
+    private static List<string> FolderFiles(string folder, SourceOptions options)
+    {
+        static IEnumerable<string> AnyDepth(IEnumerable<string> globs) =>
+            globs.Select(g => g.Contains('/') ? g.TrimStart('/') : "**/" + g);
+        var skip = (options.SkipPaths ?? [])
+            .Select(d => System.IO.Path.TrimEndingDirectorySeparator(System.IO.Path.GetFullPath(d))).ToList();
+        bool Kept(string f) =>
+            !skip.Any(d => f == d || f.StartsWith(d + System.IO.Path.DirectorySeparatorChar, StringComparison.Ordinal));
+        var m = new Matcher(StringComparison.Ordinal);
+        if (options.Include is { Count: > 0 } inc) m.AddIncludePatterns(AnyDepth(inc)); else m.AddInclude("**/*");
+        if (options.Exclude is { Count: > 0 } exc) m.AddExcludePatterns(AnyDepth(exc));
+        var files = m.GetResultsInFullPath(folder).Where(Kept).ToList();
+        if (files.Count > 0) return files;
+        int all = Directory.EnumerateFiles(folder, "*", SearchOption.AllDirectories)
+            .Count(f => Kept(System.IO.Path.GetFullPath(f)));
+        string globs = string.Join(" ", (options.Include ?? []).Select(g => $"--include '{g}'")
+            .Concat((options.Exclude ?? []).Select(g => $"--exclude '{g}'")));
+        throw new SourceException(all == 0
+            ? $"{folder}: the folder holds no files"
+            : $"{folder}: none of its {all} file{(all == 1 ? "" : "s")} matched {globs}");
     }
 
     private static string DescribeCompression(string p)

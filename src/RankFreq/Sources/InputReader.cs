@@ -250,13 +250,40 @@ public static class InputReader
             try { found = Extract(line, out len); }
             catch (Exception e) when (e is JsonException or InvalidOperationException)
             {
-                if (options.Strict) throw new SourceException($"{path}:{FileLine(_lineNo)}: malformed JSON record ({e.Message.Split('\n')[0]})");
+                if (options.Strict) throw new SourceException(StrictMessage(e, line));
                 stats.MalformedRecords++;
                 return;
             }
-            if (!found) { stats.MissingField++; return; }
+            if (!found)
+            {
+                // the names a record does have make "no field 'body'" easy to fix; a few records show them
+                if (++stats.MissingField <= 100) NoteFields(line);
+                return;
+            }
             if (_group is not null && !Group(line)) return;
             sink.Write(_value.AsSpan(0, len), true);
+        }
+
+        /// <summary>"file:line:column: malformed JSON record (what)", the column counted in characters from 1, and the
+        /// reader's own "LineNumber: 0 | BytePositionInLine: 1." (positions inside the one-line record) left out.</summary>
+        private string StrictMessage(Exception e, ReadOnlySpan<byte> line)
+        {
+            string what = e.Message.Split('\n')[0];
+            int cut = what.IndexOf(" LineNumber:", StringComparison.Ordinal);
+            if (cut > 0) what = what[..cut].TrimEnd('.', ' ');
+            string where = $"{path}:{FileLine(_lineNo)}";
+            if (e is JsonException { BytePositionInLine: { } b })
+                where += $":{Encoding.UTF8.GetCharCount(line[..(int)Math.Min(b, line.Length)]) + 1}";
+            return $"{where}: malformed JSON record ({what})";
+        }
+
+        private void NoteFields(ReadOnlySpan<byte> json)
+        {
+            var r = new Utf8JsonReader(json);
+            while (r.Read() && stats.FieldsSeen.Count < 30)
+                if (r.TokenType == JsonTokenType.PropertyName && r.CurrentDepth == 1 && r.GetString() is { } name
+                    && !stats.FieldsSeen.Contains(name))
+                    stats.FieldsSeen.Add(name);
         }
 
         private bool Extract(ReadOnlySpan<byte> json, out int len)

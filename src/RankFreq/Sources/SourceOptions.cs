@@ -25,4 +25,11 @@ public sealed record SourceOptions(
 
     /// <summary>Skip (and count) records whose group value cannot be binned instead of failing.</summary>
     public bool SkipBadGroupValues { get; init; }
+
+    /// <summary>Files and folders never taken from a folder input: a job's own outputs, so that a second run over a
+    /// folder holding them does not read the first run's tables.</summary>
+    public IReadOnlyList<string>? SkipPaths { get; init; }
+
+    /// <summary>These options with <paramref name="path"/> added to <see cref="SkipPaths"/>.</summary>
+    public SourceOptions Skipping(string path) => this with { SkipPaths = [.. SkipPaths ?? [], path] };
 }

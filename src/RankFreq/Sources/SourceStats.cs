@@ -18,9 +18,13 @@ public sealed class SourceStats
     /// <summary>Records skipped because their group value could not be binned (with --skip-bad).</summary>
     public long BadGroupValues;
 
+    /// <summary>Top-level field names of the first records that lacked the text field, in order of first sight.</summary>
+    public List<string> FieldsSeen { get; } = [];
+
     /// <summary>Adds another worker's counters.</summary>
     public void Add(SourceStats o)
     {
+        foreach (var f in o.FieldsSeen) if (!FieldsSeen.Contains(f)) FieldsSeen.Add(f);
         StoredBytes += o.StoredBytes; TextBytes += o.TextBytes; ReplacedBytes += o.ReplacedBytes;
         Records += o.Records; MalformedRecords += o.MalformedRecords; MissingField += o.MissingField;
         BadGroupValues += o.BadGroupValues;

@@ -1,3 +1,5 @@
+using RankFreq.Primitives;
+
 namespace RankFreq.Tokenization;
 
 /// <summary>Builds tokenizers from spec strings and lists the specs available.</summary>
@@ -18,7 +20,8 @@ public static class TokenizerFactory
         ("wordpiece:VOCAB.txt", "WordPiece vocabulary, one token a line"),
     ];
 
-    /// <summary>Creates the tokenizer a spec names; throws <see cref="TokenizerException"/> with a usable message otherwise.</summary>
+    /// <summary>Creates the tokenizer a spec names; throws <see cref="SettingsException"/> for a spec that names no
+    /// tokenizer and <see cref="TokenizerException"/> for one whose files cannot be used.</summary>
     public static ITokenizer Create(string spec)
     {
         spec = spec.Trim();
@@ -38,12 +41,14 @@ public static class TokenizerFactory
             {
                 case "bpe":
                     var parts = arg.Split(',');
-                    if (parts.Length != 2) throw new TokenizerException($"tokenizer '{spec}': expected bpe:VOCAB.json,MERGES.txt");
+                    if (parts.Length != 2) throw new SettingsException($"tokenizer '{spec}': expected bpe:VOCAB.json,MERGES.txt");
                     return SubwordTokenizer.Bpe(parts[0], parts[1]);
                 case "sentencepiece": return SubwordTokenizer.SentencePiece(arg);
                 case "wordpiece": return SubwordTokenizer.WordPiece(arg);
             }
         }
-        throw new TokenizerException($"unknown tokenizer '{spec}'; run 'rankfreq tokenizers' to list the specs");
+        var known = Available.Select(a => a.Spec.Split(':')[0]).Distinct();
+        throw new SettingsException($"unknown tokenizer '{spec}' (known: {string.Join(", ", known)}; "
+            + "run 'rankfreq tokenizers' for details)");
     }
 }

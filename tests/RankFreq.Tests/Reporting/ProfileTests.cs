@@ -33,7 +33,7 @@ public class ProfileTests
         File.WriteAllText(d["x.jsonl"], "{\"other\": \"no text field\"}\n");
         var (code, _, e) = Cli.Run("profile", d["x.jsonl"], "-o", d["out"]);
         Assert.Equal(1, code);
-        Assert.Contains("no tokens found", e);
+        Assert.Contains("1 record lacks a text field 'text' (fields seen: other)", e);
         Assert.False(Directory.Exists(d["out"]));
     }
 
