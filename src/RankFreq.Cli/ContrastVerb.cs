@@ -16,19 +16,23 @@ internal static class ContrastVerb
         var by = new Option<string?>("--by") { Description = "Group key: file, folder, field:NAME, field:NAME/WIDTH (numeric field in bins), column:NAME" };
         var groups = new Option<string?>("--groups") { Description = "File of two columns, path and group (instead of --by)" };
         var reps = new Option<int>("--reps") { Description = "Goodness-of-fit replicates per group (0 skips)", DefaultValueFactory = _ => 200 };
-        var bootReps = new Option<int>("--boot-reps") { Description = "Bootstrap replicates per group for the intervals and tests", DefaultValueFactory = _ => 200 };
+        var bootReps = new Option<int>("--boot-reps") { Description = "Bootstrap replicates per group for the intervals and tests",
+            DefaultValueFactory = _ => 200 };
         var thinReps = new Option<int>("--thin-reps") { Description = "Thinning replicates per group at matched size", DefaultValueFactory = _ => 50 };
         var noMatch = new Option<bool>("--no-match") { Description = "Compare at the groups' own sizes only (no thinning)" };
         var minTail = new Option<int>("--min-tail") { Description = "Fewest tail points an xmin candidate may leave", DefaultValueFactory = _ => 50 };
         var seed = new Option<ulong>("--seed") { Description = "Seed of every random draw", DefaultValueFactory = _ => 1UL };
-        var renyi = new Option<double>("--renyi-order") { Description = "Order of the Rényi entropy behind the efficiency figure", DefaultValueFactory = _ => 2.5 };
+        var renyi = new Option<double>("--renyi-order") { Description = "Order of the Rényi entropy behind the efficiency figure",
+            DefaultValueFactory = _ => 2.5 };
         var level = new Option<double>("--level") { Description = "Family-wise error rate of the pair tests (Holm)", DefaultValueFactory = _ => 0.05 };
         var skipBad = new Option<bool>("--skip-bad") { Description = "Skip and count records whose binned key is not a number instead of failing" };
         var output = new Option<string?>("--out", "-o") { Description = "Output folder for tables, plots and report.html (created if missing)" };
         var title = new Option<string?>("--title") { Description = "Title of the report (default: the input name)" };
-        var cmd = new Command("contrast", "Compare document sets: tail exponents and vocabulary figures per group, at own and matched size, with adjusted pair tests.");
+        var cmd = new Command("contrast",
+            "Compare document sets: tail exponents and vocabulary figures per group, at own and matched size, with adjusted pair tests.");
         common.AddTo(cmd);
-        foreach (var o in new Option[] { by, groups, reps, bootReps, thinReps, noMatch, minTail, seed, renyi, level, skipBad, output, title }) cmd.Options.Add(o);
+        foreach (var o in new Option[] { by, groups, reps, bootReps, thinReps, noMatch, minTail, seed, renyi, level, skipBad, output,
+            title }) cmd.Options.Add(o);
         cmd.SetAction(async (pr, ct) =>
         {
             try
@@ -77,7 +81,8 @@ internal static class ContrastVerb
         o.WriteLine($"contrast by {res.GroupKey}: {r.Groups.Count} groups, {res.Count.Tokens:N0} tokens" +
             (r.TargetTokens > 0 ? $", matched size {r.TargetTokens:N0} tokens ({r.Options.ThinReps} thinnings)" : ", no size matching"));
         int w = Math.Clamp(r.Groups.Max(g => g.Group.Length), 5, 40);
-        o.WriteLine($"  {"group".PadRight(w)} {"tokens",11} {"types",9} {"α",6} {"95% interval",15} {"xmin",6} {"n_tail",7} {"gof_p",6} │ {"matched α",9} {"± sd",6} {"types",8} {"hapax",6} {"H bits",6}");
+        o.WriteLine($"  {"group".PadRight(w)} {"tokens",11} {"types",9} {"α",6} {"95% interval",15} {"xmin",6} {"n_tail",7} {"gof_p",6} │ " +
+            $"{"matched α",9} {"± sd",6} {"types",8} {"hapax",6} {"H bits",6}");
         foreach (var g in r.Groups)
         {
             string name = g.Group.Length > w ? g.Group[..(w - 1)] + "…" : g.Group.PadRight(w);
@@ -87,16 +92,19 @@ internal static class ContrastVerb
                 continue;
             }
             var pl = g.Fit!.PowerLaw;
-            string raw = $"  {name} {g.Raw.Tokens,11:N0} {g.Raw.Types,9:N0} {F(g.Alpha),6} {$"{F(g.AlphaLo)}–{F(g.AlphaHi)}",15} {pl.Xmin,6:N0} {pl.NTail,7:N0} {F(g.Fit.GofP, "F2"),6}";
+            string raw = $"  {name} {g.Raw.Tokens,11:N0} {g.Raw.Types,9:N0} {F(g.Alpha),6} {$"{F(g.AlphaLo)}–{F(g.AlphaHi)}",15} {pl.Xmin,6:N0} " +
+                $"{pl.NTail,7:N0} {F(g.Fit.GofP, "F2"),6}";
             var m = g.Matched;
             string matched = m is null ? "" : m.Status != ContrastStatus.Ok ? " │ too small at matched size"
-                : $" │ {F(m.Figures["alpha"].Mean),9} {F(m.Figures["alpha"].Sd),6} {F(m.Figures["types"].Mean, "N0"),8} {F(m.Figures["hapax_share"].Mean),6} {F(m.Figures["entropy_bits"].Mean, "F2"),6}";
+                : $" │ {F(m.Figures["alpha"].Mean),9} {F(m.Figures["alpha"].Sd),6} {F(m.Figures["types"].Mean, "N0"),8} " +
+                    $"{F(m.Figures["hapax_share"].Mean),6} {F(m.Figures["entropy_bits"].Mean, "F2"),6}";
             o.WriteLine(raw + matched);
         }
         var differ = r.Pairs.Where(p => p.Headline.Significant).ToList();
         o.WriteLine($"pairs: {r.Pairs.Count}, differing in α after Holm's adjustment: {differ.Count}");
         foreach (var p in r.Pairs.OrderBy(p => p.Headline.PHolm).Take(10))
-            o.WriteLine($"  {p.A} vs {p.B}: Δα {F(p.Headline.Diff)} ({F(p.Headline.Lo)} to {F(p.Headline.Hi)}), p {F(p.Headline.P, "G3")}, Holm {F(p.Headline.PHolm, "G3")} [{p.Basis}]{(p.Headline.Significant ? "  *" : "")}");
+            o.WriteLine($"  {p.A} vs {p.B}: Δα {F(p.Headline.Diff)} ({F(p.Headline.Lo)} to {F(p.Headline.Hi)}), p {F(p.Headline.P, "G3")}, Holm " +
+                $"{F(p.Headline.PHolm, "G3")} [{p.Basis}]{(p.Headline.Significant ? "  *" : "")}");
         if (r.Pairs.Count > 10) o.WriteLine($"  … {r.Pairs.Count - 10} more pairs (see --json or pairs.parquet)");
         o.WriteLine("findings");
         foreach (var f in r.Findings) o.WriteLine($"  {f}");

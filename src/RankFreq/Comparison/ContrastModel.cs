@@ -152,7 +152,8 @@ public static class ContrastFigures
     /// <summary>Names, descriptions and size sensitivity, in report order.</summary>
     public static IReadOnlyList<FigureInfo> All { get; } =
     [
-        new("alpha", "tail exponent α (discrete power-law MLE, xmin by KS); a consistent estimator when the tail is a power law, but xmin and the tail length move with N", false),
+        new("alpha", "tail exponent α (discrete power-law MLE, xmin by KS); a consistent estimator when the tail is a power law, but xmin and the tail " +
+            "length move with N", false),
         new("xmin", "lower cut-off of the tail", true),
         new("n_tail", "types in the tail", true),
         new("zipf_s", "Zipf rank exponent s = 1/(α − 1)", false),

@@ -37,7 +37,8 @@ public static class ContrastReading
         if (findings.Count == 0)
             findings.Add($"no pair of groups differs in α {basis} after Holm's adjustment over {pairs.Count} pair(s) at the {level} level");
         foreach (var p in pairs.Where(p => p.Matched is not null && p.Raw.Significant && !p.Matched.Significant))
-            findings.Add($"\"{p.A}\" and \"{p.B}\" differ at their own sizes but not at matched size: the raw difference may come from sample size (or matching costs power)");
+            findings.Add($"\"{p.A}\" and \"{p.B}\" differ at their own sizes but not at matched size: the raw difference may come from sample size (or " +
+                "matching costs power)");
 
         if (pairs.Count > 0)
         {
@@ -52,7 +53,8 @@ public static class ContrastReading
             cautions.Add($"tails of fewer than 100 types ({string.Join(", ", shortTails.Select(x => $"\"{x}\""))}): α is poorly determined there");
         var lowGof = fitted.Where(g => g.Fit!.GofP < 0.1).Select(g => g.Group).ToList();
         if (lowGof.Count > 0)
-            cautions.Add($"the power law is doubtful (gof_p < 0.1) for {string.Join(", ", lowGof.Select(x => $"\"{x}\""))}: α then summarises the tail's slope, not a law");
+            cautions.Add($"the power law is doubtful (gof_p < 0.1) for {string.Join(", ", lowGof.Select(x => $"\"{x}\""))}: α then summarises the " +
+                "tail's slope, not a law");
         cautions.Add("p-values say whether a difference exceeds sampling noise, not how large or why; a large p is not evidence of equal tails");
         cautions.Add(target > 0
             ? "types, hapax share, unseen mass, entropy, Rényi efficiency and Heaps β depend on sample size: compare their matched values, not the raw ones"

@@ -54,7 +54,8 @@ public static class GroupComparison
             if (s.TokenCount == 0) { status[g] = ContrastStatus.Empty; message[g] = "no tokens"; continue; }
             var fo = new FitOptions(o.MinTail, 0, o.Reps, 0, GroupSeed(o.Seed, g), o.Threads, []);
             int gi = g;
-            var fp = progress is null ? null : new Progress<FitProgress>(p => progress.Report(new ContrastProgress(p.Stage, groups[gi].Group, p.Done, p.Total)));
+            var fp = progress is null ? null : new Progress<FitProgress>(p => progress.Report(new ContrastProgress(p.Stage, groups[gi].Group, p.Done,
+                p.Total)));
             try { fits[g] = TailFitter.Fit(s, fo, fp, ct); }
             catch (FitInputException e) { status[g] = ContrastStatus.FitFailed; message[g] = e.Message; continue; }
             if (fits[g]!.PowerLaw.Status != FitStatus.Ok)

@@ -70,7 +70,8 @@ public static partial class CountEngine
             var stats = Stats();
             return new CountSummary(Tokenizer.Spec, Tokenizer.Normalization, Tokenizer.CaseRule, tokens, types,
                 stats.StoredBytes, stats.TextBytes, stats.ReplacedBytes, stats.Records, stats.MalformedRecords, stats.MissingField,
-                Skipped, Files.Select(f => new InputInfo(f.Path, f.IsStdin ? Interlocked.Read(ref StdinBytes[0]) : f.Length)).ToList(), Threads, Spill.Runs + Workers.Sum(w => w.GroupRuns), Clock.Elapsed.TotalSeconds);
+                Skipped, Files.Select(f => new InputInfo(f.Path, f.IsStdin ? Interlocked.Read(ref StdinBytes[0]) : f.Length)).ToList(), Threads,
+                    Spill.Runs + Workers.Sum(w => w.GroupRuns), Clock.Elapsed.TotalSeconds);
         }
     }
 

@@ -39,11 +39,13 @@ public sealed record ContrastJobResult(CountSummary Count, ContrastResult Contra
 public static class ContrastJob
 {
     /// <summary>Runs the contrast. Bad input throws a <see cref="Primitives.RankFreqException"/> before anything is written.</summary>
-    public static async Task<ContrastJobResult> RunAsync(IReadOnlyList<string> inputs, ContrastSettings settings, IProgress<CountProgress>? countProgress = null,
+    public static async Task<ContrastJobResult> RunAsync(IReadOnlyList<string> inputs, ContrastSettings settings,
+        IProgress<CountProgress>? countProgress = null,
         IProgress<ContrastProgress>? progress = null, CancellationToken ct = default)
     {
         var s = settings.Key is null
-            ? settings with { Key = GroupKey.FromTable(settings.GroupsFile ?? throw new ArgumentException("a group key or a groups file is needed", nameof(settings))) }
+            ? settings with { Key = GroupKey.FromTable(settings.GroupsFile ?? throw new ArgumentException("a group key or a groups file is needed",
+                nameof(settings))) }
             : settings;
         var key = s.Key!;
         // a folder input never reads this run's own output folder
@@ -131,7 +133,8 @@ public static class ContrastJob
         string parent = Path.GetDirectoryName(Path.TrimEndingDirectorySeparator(full))!;
         string tmp = Path.Combine(parent, $".{Path.GetFileName(Path.TrimEndingDirectorySeparator(full))}.{Guid.NewGuid():N}.tmp");
         try { Directory.CreateDirectory(tmp); }
-        catch (Exception e) when (e is IOException or UnauthorizedAccessException) { throw new StorageException($"{dir}: cannot create the output folder ({e.Message})", e); }
+        catch (Exception e) when (e is IOException or UnauthorizedAccessException)
+            { throw new StorageException($"{dir}: cannot create the output folder ({e.Message})", e); }
         try
         {
             var meta = CountTableMetadata.From(counted.Summary, s.RedactBelow);
@@ -142,9 +145,12 @@ public static class ContrastJob
             var rendered = new[] { Plots.Exponents(result), Plots.RankFrequencyByGroup(spectra), Plots.CcdfByGroup(spectra) };
             await PlotFiles.WriteAsync(tmp, rendered);
             if (Plots.Font is null)
-                warnings.Add("no font file found (looked in the fontconfig folders), so PNG plots were skipped; install a font (Debian: fonts-dejavu-core) to get them. SVG plots and the report are complete.");
-            string title = s.Title ?? (inputs.Count == 1 ? Path.GetFileName(Path.TrimEndingDirectorySeparator(Path.GetFullPath(inputs[0]))) : $"{inputs.Count} inputs");
-            await AtomicFile.WriteTextAsync(Path.Combine(tmp, "report.html"), ReportHtml.BuildContrast(title, s.Key!.Spec, counted.Summary, result, cautions, rendered));
+                warnings.Add("no font file found (looked in the fontconfig folders), so PNG plots were skipped; install a font (Debian: " +
+                    "fonts-dejavu-core) to get them. SVG plots and the report are complete.");
+            string title = s.Title ?? (inputs.Count == 1 ? Path.GetFileName(Path.TrimEndingDirectorySeparator(Path.GetFullPath(inputs[0])))
+                : $"{inputs.Count} inputs");
+            await AtomicFile.WriteTextAsync(Path.Combine(tmp, "report.html"), ReportHtml.BuildContrast(title, s.Key!.Spec, counted.Summary, result,
+                cautions, rendered));
             Publish(tmp, full);
         }
         catch

@@ -10,7 +10,8 @@ public static partial class Plots
     // one colour per group, cycled: the profile's ink, ember and moss first, then muted companions (hex here: static
     // fields of the other part of this class may not be initialised yet when this one is)
     private static readonly Color[] GroupColors =
-        [Color.FromHex("#23395B"), Color.FromHex("#D1495B"), Color.FromHex("#5B8C5A"), Color.FromHex("#C08A1E"), Color.FromHex("#6C4F8C"), Color.FromHex("#2F8F9D"), Color.FromHex("#8C5A3C"),
+        [Color.FromHex("#23395B"), Color.FromHex("#D1495B"), Color.FromHex("#5B8C5A"), Color.FromHex("#C08A1E"), Color.FromHex("#6C4F8C"),
+            Color.FromHex("#2F8F9D"), Color.FromHex("#8C5A3C"),
          Color.FromHex("#4F6D7A"), Color.FromHex("#B5656F"), Color.FromHex("#7A8B3A")];
 
     private static Color GroupColor(int i) => GroupColors[i % GroupColors.Length];
@@ -31,7 +32,8 @@ public static partial class Plots
             var g = groups[i];
             Interval(p, y + 0.12, g.AlphaLo, g.AlphaHi, g.Alpha, GroupColors[0], i == 0 ? "own size" : null);
             if (g.Matched is { Status: ContrastStatus.Ok } m)
-                Interval(p, y - 0.12, m.AlphaLo, m.AlphaHi, m.Figures["alpha"].Mean, GroupColors[1], i == 0 ? $"matched size ({m.TargetTokens:N0} tokens)" : null);
+                Interval(p, y - 0.12, m.AlphaLo, m.AlphaHi, m.Figures["alpha"].Mean, GroupColors[1], i == 0
+                    ? $"matched size ({m.TargetTokens:N0} tokens)" : null);
         }
         if (groups.Count > 0) p.Axes.Left.SetTicks(pos, groups.Select(g => g.Group).ToArray());
         // an empty band below the last group holds the legend

@@ -16,15 +16,18 @@ public static partial class ReportHtml
         sb.Append("<!DOCTYPE html><html lang=\"en\"><head><meta charset=\"utf-8\"><meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">");
         sb.Append($"<title>{H(title)} — RankFreq contrast</title><style>{Css}</style></head><body>");
         sb.Append($"<header><div class=\"brand\">RankFreq contrast</div><h1>{H(title)}</h1>");
-        sb.Append($"<p class=\"sub\">{r.Groups.Count} groups by <code>{H(groupKey)}</code> · {N(c.Tokens)} tokens · tokenizer <code>{H(c.TokenizerSpec)}</code> · ");
+        sb.Append($"<p class=\"sub\">{r.Groups.Count} groups by <code>{H(groupKey)}</code> · {N(c.Tokens)} tokens · tokenizer " +
+            $"<code>{H(c.TokenizerSpec)}</code> · ");
         sb.Append($"{c.Inputs.Count} input file(s) · made {DateTime.UtcNow:yyyy-MM-dd HH:mm} UTC</p></header><main>");
 
         int fitted = r.Groups.Count(g => g.Status == ContrastStatus.Ok);
         int differ = r.Pairs.Count(p => p.Headline.Significant);
         sb.Append("<section class=\"cards\">");
-        Card(sb, "groups compared", $"{fitted} of {r.Groups.Count}", fitted < r.Groups.Count ? "the others are listed below with the reason" : "every group could be fitted");
+        Card(sb, "groups compared", $"{fitted} of {r.Groups.Count}", fitted < r.Groups.Count ? "the others are listed below with the reason"
+            : "every group could be fitted");
         Card(sb, "pairs that differ in α", $"{differ} of {r.Pairs.Count}", $"after Holm's adjustment at the {F(r.Options.Level, "0.###")} level");
-        Card(sb, "matched size", r.TargetTokens > 0 ? N(r.TargetTokens) : "off", r.TargetTokens > 0 ? $"tokens per group, {r.Options.ThinReps} thinning replicates" : "figures at the groups' own sizes");
+        Card(sb, "matched size", r.TargetTokens > 0 ? N(r.TargetTokens) : "off", r.TargetTokens > 0
+            ? $"tokens per group, {r.Options.ThinReps} thinning replicates" : "figures at the groups' own sizes");
         var alphas = r.Groups.Where(g => g.Status == ContrastStatus.Ok).Select(g => g.Alpha).ToList();
         Card(sb, "α range", alphas.Count > 0 ? $"{F(alphas.Min())} – {F(alphas.Max())}" : "–", "raw exponents of the fitted groups");
         sb.Append("</section>");
@@ -44,7 +47,8 @@ public static partial class ReportHtml
         if (r.TargetTokens > 0)
         {
             sb.Append($"<section><h2>Groups at a matched size of {N(r.TargetTokens)} tokens</h2><table><thead><tr><th>group</th>");
-            foreach (var fi in ContrastFigures.All) sb.Append($"<th title=\"{H(fi.Description)}\">{H(fi.Name.Replace('_', ' '))}{(fi.SizeSensitive ? " *" : "")}</th>");
+            foreach (var fi in ContrastFigures.All) sb.Append($"<th " +
+                $"title=\"{H(fi.Description)}\">{H(fi.Name.Replace('_', ' '))}{(fi.SizeSensitive ? " *" : "")}</th>");
             sb.Append("</tr></thead><tbody>");
             foreach (var g in r.Groups.Where(g => g.Matched is not null))
             {
@@ -58,17 +62,20 @@ public static partial class ReportHtml
                 sb.Append("</tr>");
             }
             sb.Append("</tbody></table><p class=\"note\">Each group was thinned to the smallest fitted group's size (every token kept with probability ");
-            sb.Append("target / own size), repeatedly; cells give the mean ± standard deviation over the replicates. * marks figures that move with sample size, ");
+            sb.Append("target / own size), repeatedly; cells give the mean ± standard deviation over the replicates. * marks figures that move with " +
+                "sample size, ");
             sb.Append("whose raw values must not be compared across groups of different sizes.</p></section>");
         }
 
         if (r.Pairs.Count > 0)
         {
-            sb.Append("<section><h2>Pairs</h2><table><thead><tr><th>a</th><th>b</th><th>basis</th><th>α_a − α_b</th><th>95% interval</th><th>p</th><th>Holm p</th><th>differ</th><th>raw difference</th><th>raw Holm p</th></tr></thead><tbody>");
+            sb.Append("<section><h2>Pairs</h2><table><thead><tr><th>a</th><th>b</th><th>basis</th><th>α_a − α_b</th><th>95% " +
+                "interval</th><th>p</th><th>Holm p</th><th>differ</th><th>raw difference</th><th>raw Holm p</th></tr></thead><tbody>");
             foreach (var p in r.Pairs)
             {
                 var h = p.Headline;
-                sb.Append($"<tr><td>{H(p.A)}</td><td>{H(p.B)}</td><td>{p.Basis}</td><td class=\"n\">{F(h.Diff)}</td><td class=\"n\">{F(h.Lo)} – {F(h.Hi)}</td>");
+                sb.Append($"<tr><td>{H(p.A)}</td><td>{H(p.B)}</td><td>{p.Basis}</td><td class=\"n\">{F(h.Diff)}</td><td class=\"n\">{F(h.Lo)} – " +
+                    $"{F(h.Hi)}</td>");
                 sb.Append($"<td class=\"n\">{F(h.P, "G3")}</td><td class=\"n\">{F(h.PHolm, "G3")}</td>");
                 sb.Append($"<td><span class=\"tag {(h.Significant ? "alt" : "neutral")}\">{(h.Significant ? "yes" : "no")}</span></td>");
                 sb.Append($"<td class=\"n\">{F(p.Raw.Diff)}</td><td class=\"n\">{F(p.Raw.PHolm, "G3")}</td></tr>");
