@@ -40,4 +40,11 @@ public sealed record TailFitResult(
     ulong Seed,
     FitOptions Options,
     IReadOnlyList<AlternativeComparison> Alternatives,
-    double Seconds);
+    double Seconds)
+{
+    /// <summary>
+    /// The finite α of every uncertainty replicate, ascending (empty when the bootstrap was not run), so that readers
+    /// can see the whole bootstrap distribution behind <see cref="AlphaLo"/>, <see cref="AlphaHi"/> and <see cref="AlphaSd"/>.
+    /// </summary>
+    public IReadOnlyList<double> AlphaReplicates { get; init; } = [];
+}

@@ -59,6 +59,7 @@ public static class TailFitter
 
         double aSd = nan, aLo = nan, aHi = nan, xLo = nan, xHi = nan, nSd = nan;
         int ciDone = 0;
+        double[] alphaReps = [];
         if (options.CiReps > 0)
         {
             var alpha = new double[options.CiReps];
@@ -80,6 +81,7 @@ public static class TailFitter
             var a = alpha.Where(double.IsFinite).Order().ToArray();
             var x = xmin.Where(double.IsFinite).Order().ToArray();
             ciDone = a.Length;
+            alphaReps = a;
             if (a.Length > 1)
             {
                 aSd = Sd(a); aLo = Percentile(a, 0.025); aHi = Percentile(a, 0.975);
@@ -89,7 +91,8 @@ public static class TailFitter
         }
         double zs = 1 / (pl.Alpha - 1);
         double zsSe = pl.AlphaSe / ((pl.Alpha - 1) * (pl.Alpha - 1));
-        return new TailFitResult(pl, nTypes, aSd, aLo, aHi, xLo, xHi, nSd, gofP, options.Reps, ciDone, zs, zsSe, lsq, options.Seed, options, alts, sw.Elapsed.TotalSeconds);
+        return new TailFitResult(pl, nTypes, aSd, aLo, aHi, xLo, xHi, nSd, gofP, options.Reps, ciDone, zs, zsSe, lsq, options.Seed, options, alts, sw.Elapsed.TotalSeconds)
+            { AlphaReplicates = alphaReps };
     }
 
     private static double Sd(double[] x)

@@ -35,9 +35,9 @@ public static class ProfileJob
 
         var rendered = new[]
         {
-            Plots.RankFrequency(counted.Spectrum, fit), Plots.Ccdf(counted.Spectrum, fit), Plots.Spectrum(counted.Spectrum),
-            Plots.Growth(growth),
-        };
+            Plots.RankFrequency(counted.Spectrum, fit), Plots.Ccdf(counted.Spectrum, fit), Plots.Spectrum(counted.Spectrum, fit),
+            Plots.AlphaBootstrap(fit), Plots.Growth(growth),
+        }.OfType<RenderedPlot>().ToArray();
         var plots = await PlotFiles.WriteAsync(dir, rendered);
         if (Plots.Font is null)
             warnings.Add("no font file found (looked in the fontconfig folders), so PNG plots were skipped; install a font (Debian: fonts-dejavu-core) to get them. SVG plots and the report are complete.");

@@ -16,4 +16,7 @@ public sealed record GrowthAnalysis(long[] Tokens, long[] Observed, double[] Exp
 {
     /// <summary>Heaps' law at <paramref name="tokens"/>: K·N^β.</summary>
     public double HeapsAt(double tokens) => HeapsK * Math.Pow(tokens, HeapsBeta);
+
+    /// <summary>The first checkpoint N of the Heaps fit (0 when there was none): the law is fitted from here to the end.</summary>
+    public long HeapsFrom { get; init; }
 }

@@ -26,6 +26,8 @@ public static class LexicalFields
     [
         new("heaps_k", FieldKind.Real, g => g.HeapsK, "Heaps' K in V = K·N^β", "G4"),
         new("heaps_beta", FieldKind.Real, g => g.HeapsBeta, "Heaps' β in V = K·N^β", "F3"),
+        new("heaps_from", FieldKind.Integer, g => g.HeapsFrom > 0 ? g.HeapsFrom : null, "Heaps' law fitted from N =",
+            Shown: false),
         new("heaps_method", FieldKind.Text, g => g.HeapsMethod, "how Heaps' law was fitted", Shown: false),
     ];
 }

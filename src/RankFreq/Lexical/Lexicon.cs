@@ -1,3 +1,4 @@
+using System.Globalization;
 using MathNet.Numerics;
 using RankFreq.Counting;
 
@@ -53,21 +54,43 @@ public static class Lexicon
         return s.TypeCount - absent;
     }
 
-    /// <summary>Growth curves and Heaps' law, fitted by ordinary least squares of ln V on ln N over the observed checkpoints with N ≥ 100.</summary>
+    /// <summary>Share of the tokens after which Heaps' law is fitted: the upper part of the growth curve.</summary>
+    public const double HeapsFromShare = 0.1;
+
+    /// <summary>
+    /// Growth curves and Heaps' law V = K·N^β, fitted by ordinary least squares of ln V on ln N over the observed
+    /// checkpoints with N ≥ <see cref="HeapsFromShare"/> of the tokens (all checkpoints when fewer than three lie there).
+    /// </summary>
+    /// <remarks>
+    /// Heaps' law describes the upper growth curve; the first few hundred tokens of a text add a new type at almost
+    /// every token, and a fit over the whole log-spaced curve, where such early points are as many as the late ones,
+    /// sits well below the curve where it matters. Fitting from 10% of N is our choice, stated in
+    /// <see cref="GrowthAnalysis.HeapsMethod"/> and <see cref="GrowthAnalysis.HeapsFrom"/>.
+    /// </remarks>
     public static GrowthAnalysis Growth(FrequencySpectrum s, GrowthCurve observed)
     {
         var tokens = observed.Tokens;
         var exp = tokens.Select(t => ExpectedTypes(s, t)).ToArray();
         var bin = tokens.Select(t => BinomialTypes(s, t)).ToArray();
-        var pts = tokens.Select((t, i) => (t, v: observed.Types[i])).Where(p => p.t >= 100 && p.v > 0).ToList();
-        if (pts.Count < 3) pts = tokens.Select((t, i) => (t, v: observed.Types[i])).Where(p => p.v > 0).ToList();
+        var all = tokens.Select((t, i) => (t, v: observed.Types[i])).Where(p => p.v > 0).ToList();
+        long total = tokens.Length > 0 ? tokens[^1] : 0;
+        var pts = all.Where(p => p.t >= HeapsFromShare * total).ToList();
+        bool upper = pts.Count >= 3;
+        if (!upper) pts = all;
         double k = double.NaN, beta = double.NaN;
         if (pts.Count >= 2)
         {
             var (a, b) = Fit.Line(pts.Select(p => Math.Log(p.t)).ToArray(), pts.Select(p => Math.Log(p.v)).ToArray());
             k = Math.Exp(a); beta = b;
         }
-        return new GrowthAnalysis(tokens, observed.Types, exp, bin, k, beta,
-            "ordinary least squares of ln V on ln N over log-spaced checkpoints of the observed growth curve (N ≥ 100)");
+        long from = pts.Count > 0 ? pts[0].t : 0;
+        var ic = CultureInfo.InvariantCulture;
+        string share = string.Create(ic, $"{HeapsFromShare * 100:F0}%");
+        string range = pts.Count == 0 ? "no checkpoints"
+            : string.Create(ic, $"the {pts.Count} observed checkpoints from N = {from:N0} to N = {pts[^1].t:N0}");
+        string method = $"ordinary least squares of ln V on ln N over {range}"
+            + (upper ? $" (the upper growth curve, from {share} of the tokens on)"
+                : $" (all of them: fewer than three lie beyond {share} of the tokens)");
+        return new GrowthAnalysis(tokens, observed.Types, exp, bin, k, beta, method) { HeapsFrom = from };
     }
 }

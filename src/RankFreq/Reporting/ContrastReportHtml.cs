@@ -84,7 +84,9 @@ public static partial class ReportHtml
             sb.Append("difference over its bootstrap standard error, adjusted by Holm's step-down method over all pairs.</p></section>");
         }
 
+        sb.Append("<section><h2>Plots</h2>");
         Figures(sb, plots);
+        sb.Append("</section>");
 
         sb.Append("<section class=\"caution\"><h2>Reading these results</h2><ul>");
         foreach (var line in cautions) sb.Append($"<li>{H(line)}</li>");
@@ -102,19 +104,6 @@ public static partial class ReportHtml
         sb.Append("<footer>Method: discrete power-law maximum likelihood with the KS-chosen lower cut-off (Clauset, Shalizi &amp; Newman 2009); ");
         sb.Append("binomial thinning to a common size; Holm (1979) step-down adjustment.</footer></main></body></html>");
         return sb.ToString();
-    }
-
-    /// <summary>The plots inlined as SVG, each with its caption.</summary>
-    private static void Figures(StringBuilder sb, IReadOnlyList<RenderedPlot> plots)
-    {
-        sb.Append("<section class=\"plots\">");
-        foreach (var p in plots)
-        {
-            string svg = p.Svg;
-            int i = svg.IndexOf("<svg", StringComparison.Ordinal);
-            sb.Append($"<figure>{(i >= 0 ? svg[i..] : svg)}<figcaption>{H(p.Title)}</figcaption></figure>");
-        }
-        sb.Append("</section>");
     }
 
     private static void FieldTable<T>(StringBuilder sb, IReadOnlyList<ResultField<T>> fields, IEnumerable<T> rows, string[] names)
