@@ -1,9 +1,9 @@
 using System.Runtime.CompilerServices;
 using System.Diagnostics;
 using System.Text;
+using RankFreq.Primitives;
 using RankFreq.Sources;
 using RankFreq.Tokenization;
-using RankFreq.Primitives;
 
 namespace RankFreq.Counting;
 
@@ -12,7 +12,7 @@ namespace RankFreq.Counting;
 /// newline-aligned ranges of large plain files), spilled as sorted runs to a temporary folder when the memory budget
 /// is reached, merged exactly at the end.
 /// </summary>
-public static class CountEngine
+public static partial class CountEngine
 {
     /// <summary>
     /// Counts <paramref name="files"/> (already expanded and, for a shard, selected; see the count job) with
@@ -23,8 +23,68 @@ public static class CountEngine
     public static CountResult Count(ITokenizer tokenizer, IReadOnlyList<InputFile> files, IReadOnlyList<SkippedFile> skipped,
         CountSettings settings, IProgress<CountProgress>? progress = null, CancellationToken ct = default)
     {
+        var pass = Run(tokenizer, files, skipped, settings, null, progress, ct);
+        bool handedOver = false;
+        try
+        {
+            long tokens = pass.UnitTokens.Sum();
+            if (tokens == 0) throw NoTokensFound(pass);
+            var unitStart = new long[pass.Units.Count];
+            for (int i = 1; i < pass.Units.Count; i++) unitStart[i] = unitStart[i - 1] + pass.UnitTokens[i - 1];
+            var checkpoints = GrowthCurve.Checkpoints(tokens);
+            var growth = new GrowthHistogram(checkpoints, unitStart);
+
+            ICountRows rows;
+            FrequencySpectrum spectrum;
+            if (pass.Tokenizer.Identity == TokenIdentity.Ids)
+                (rows, spectrum) = RankIds(pass.Tokenizer, pass.Workers.Select(w => (w.IdCounts!, w.IdFirst!)), growth);
+            else
+                (rows, spectrum) = RankBuilder.Build(pass.Workers.Select(w => w.Table).ToList(), pass.Spill, pass.Budget, growth);
+            handedOver = true;
+            return new CountResult(pass.Summary(tokens, spectrum.TypeCount), rows, spectrum, growth.ToCurve(), pass.Tokenizer.Identity == TokenIdentity.Ids);
+        }
+        finally
+        {
+            if (!handedOver) pass.Spill.Dispose();
+        }
+    }
+
+    /// <summary>The error of a pass that found no tokens, saying why where it can.</summary>
+    private static CountingException NoTokensFound(Pass pass) =>
+        new(NoTokens.Message(pass.Files, pass.Skipped, pass.Stats(), pass.Source));
+
+    /// <summary>What one counting pass left: the workers' tables, per-unit token counts and the run's facts.</summary>
+    private sealed record Pass(ITokenizer Tokenizer, IReadOnlyList<InputFile> Files, IReadOnlyList<SkippedFile> Skipped, IReadOnlyList<WorkUnit> Units,
+        long[] UnitTokens, List<Worker> Workers, SpillSet Spill, long Budget, int Threads, Stopwatch Clock, SourceOptions Source,
+        long[] StdinBytes)
+    {
+        public SourceStats Stats()
+        {
+            var stats = new SourceStats();
+            foreach (var w in Workers) stats.Add(w.Stats);
+            return stats;
+        }
+
+        public CountSummary Summary(long tokens, long types)
+        {
+            var stats = Stats();
+            return new CountSummary(Tokenizer.Spec, Tokenizer.Normalization, Tokenizer.CaseRule, tokens, types,
+                stats.StoredBytes, stats.TextBytes, stats.ReplacedBytes, stats.Records, stats.MalformedRecords, stats.MissingField,
+                Skipped, Files.Select(f => new InputInfo(f.Path, f.IsStdin ? Interlocked.Read(ref StdinBytes[0]) : f.Length)).ToList(), Threads,
+                    Spill.Runs + Workers.Sum(w => w.GroupRuns), Clock.Elapsed.TotalSeconds);
+        }
+    }
+
+    /// <summary>
+    /// The one pass over the inputs shared by plain and grouped counting: tokenizes every work unit into per-worker
+    /// tables (per group when <paramref name="groups"/> is given), spilling when over budget.
+    /// </summary>
+    private static Pass Run(ITokenizer tokenizer, IReadOnlyList<InputFile> files, IReadOnlyList<SkippedFile> skipped, CountSettings settings,
+        GroupKey? groups, IProgress<CountProgress>? progress, CancellationToken ct)
+    {
         var sw = Stopwatch.StartNew();
         var source = settings.Source ?? new SourceOptions();
+        if (groups is not null) source = source with { Group = groups };
         int threads = settings.EffectiveThreads;
         // more ranges than threads, handed out one at a time, so a slow range does not leave a core idle at the end
         var units = InputPlanner.Plan(files, tokenizer.RangeCut, threads > 1 ? threads * 8 : 1, settings.SplitAboveBytes);
@@ -32,11 +92,12 @@ public static class CountEngine
         var unitTokens = new long[units.Count];
         var spill = new SpillSet(settings.TempDirectory);
         long budget = settings.EffectiveMemory;
+        var groupSpills = groups is null ? null : new System.Collections.Concurrent.ConcurrentDictionary<string, SpillSet>(StringComparer.Ordinal);
         var workers = new List<Worker>();
-        long done = 0, stdinBytes = 0;
+        long done = 0;
+        var stdinBytes = new long[1];
         using var timer = progress is null ? null : new Timer(_ =>
             progress.Report(new CountProgress(Interlocked.Read(ref done), totalBytes, workers.ToArray().Sum(w => w.Tokens), sw.Elapsed)), null, 500, 500);
-        bool handedOver = false;
         try
         {
             // units handed out one at a time in corpus order, so each worker meets its units in increasing order and
@@ -46,17 +107,19 @@ public static class CountEngine
                 new ParallelOptions { MaxDegreeOfParallelism = threads, CancellationToken = ct },
                 () =>
                 {
-                    var w = new Worker(tokenizer, spill, budget / threads);
+                    var w = new Worker(tokenizer, spill, budget / threads,
+                        groupSpills is null ? null : label => groupSpills.GetOrAdd(label, _ => new SpillSet(settings.TempDirectory)));
                     lock (workers) workers.Add(w);
                     return w;
                 },
                 (unit, _, w) =>
                 {
                     w.Begin(unit.Index);
+                    if (groups is { PerFile: true }) w.BeginGroup(groups.LabelOfFile(unit.File.Path));
                     InputReader.Read(unit, source, w, w.Stats, n =>
                     {
                         Interlocked.Add(ref done, n);
-                        if (unit.File.IsStdin) Interlocked.Add(ref stdinBytes, n);
+                        if (unit.File.IsStdin) Interlocked.Add(ref stdinBytes[0], n);
                     }, ct);
                     unitTokens[unit.Index] = w.End();
                     return w;
@@ -65,57 +128,36 @@ public static class CountEngine
         }
         catch (AggregateException ae) when (ae.InnerExceptions.Count > 0)
         {
-            spill.Dispose();
+            DisposeAll(spill, groupSpills);
             var first = ae.InnerExceptions.FirstOrDefault(e => e is SourceException or TokenizerException or CountingException) ?? ae.InnerExceptions[0];
             System.Runtime.ExceptionServices.ExceptionDispatchInfo.Capture(first).Throw();
             throw;
         }
         catch
         {
-            spill.Dispose();
+            DisposeAll(spill, groupSpills);
             throw;
         }
-        try
-        {
-            var stats = new SourceStats();
-            foreach (var w in workers) stats.Add(w.Stats);
-            long tokens = unitTokens.Sum();
-            if (tokens == 0) throw new CountingException(NoTokens.Message(files, skipped, stats, source));
-            var unitStart = new long[units.Count];
-            for (int i = 1; i < units.Count; i++) unitStart[i] = unitStart[i - 1] + unitTokens[i - 1];
-            var checkpoints = GrowthCurve.Checkpoints(tokens);
-            var growth = new GrowthHistogram(checkpoints, unitStart);
-
-            ICountRows rows;
-            FrequencySpectrum spectrum;
-            if (tokenizer.Identity == TokenIdentity.Ids)
-                (rows, spectrum) = RankIds(tokenizer, workers, growth);
-            else
-                (rows, spectrum) = RankBuilder.Build(workers.Select(w => w.Table).ToList(), spill, budget, growth);
-            var inputsInfo = files.Select(f => new InputInfo(f.Path, f.IsStdin ? Interlocked.Read(ref stdinBytes) : f.Length)).ToList();
-            var summary = new CountSummary(tokenizer.Spec, tokenizer.Normalization, tokenizer.CaseRule, tokens, spectrum.TypeCount,
-                stats.StoredBytes, stats.TextBytes, stats.ReplacedBytes, stats.Records, stats.MalformedRecords, stats.MissingField,
-                skipped, inputsInfo, threads, spill.Runs, sw.Elapsed.TotalSeconds);
-            handedOver = true;
-            return new CountResult(summary, rows, spectrum, growth.ToCurve(), tokenizer.Identity == TokenIdentity.Ids);
-        }
-        finally
-        {
-            if (!handedOver) spill.Dispose();
-        }
+        return new Pass(tokenizer, files, skipped, units, unitTokens, workers, spill, budget, threads, sw, source, stdinBytes);
     }
 
-    private static (ICountRows, FrequencySpectrum) RankIds(ITokenizer tok, List<Worker> workers, GrowthHistogram growth)
+    private static void DisposeAll(SpillSet spill, System.Collections.Concurrent.ConcurrentDictionary<string, SpillSet>? groups)
+    {
+        spill.Dispose();
+        if (groups is not null) foreach (var s in groups.Values) s.Dispose();
+    }
+
+    private static (ICountRows, FrequencySpectrum) RankIds(ITokenizer tok, IEnumerable<(long[] Counts, long[] First)> parts, GrowthHistogram growth)
     {
         int v = tok.VocabularySize;
         var counts = new long[v];
         var first = new long[v];
         Array.Fill(first, long.MaxValue);
-        foreach (var w in workers)
+        foreach (var (partCounts, partFirst) in parts)
             for (int i = 0; i < v; i++)
             {
-                counts[i] += w.IdCounts![i];
-                if (w.IdFirst![i] < first[i]) first[i] = w.IdFirst[i];
+                counts[i] += partCounts[i];
+                if (partFirst[i] < first[i]) first[i] = partFirst[i];
             }
         var ids = Enumerable.Range(0, v).Where(i => counts[i] > 0).ToArray();
         var display = ids.Select(tok.DisplayToken).ToArray();
@@ -130,42 +172,88 @@ public static class CountEngine
     }
 
     /// <summary>One worker thread's state: its tokenizer session, table and counters.</summary>
-    private sealed class Worker : ITokenSink, ITextSink
+    private sealed class Worker : ITokenSink, ITextSink, IGroupSink
     {
         private readonly ITokenizerSession _session;
         private readonly SpillSet _spill;
         private readonly long _budget;
+        private readonly ITokenizer _tok;
+        private readonly Func<string, SpillSet>? _groupSpill;
         private int _unit;
         private long _pos;
         private long _tokensBefore;
+        private GroupPart? _group;
+        private long _groupFrom;
 
-        public Worker(ITokenizer tok, SpillSet spill, long budget)
+        public Worker(ITokenizer tok, SpillSet spill, long budget, Func<string, SpillSet>? groupSpill = null)
         {
+            _tok = tok;
             _spill = spill;
             _budget = budget;
-            if (tok.Identity == TokenIdentity.Ids)
-            {
-                IdCounts = new long[tok.VocabularySize];
-                IdFirst = new long[tok.VocabularySize];
-                Array.Fill(IdFirst, long.MaxValue);
-            }
+            _groupSpill = groupSpill;
+            if (groupSpill is not null) Groups = new Dictionary<string, GroupPart>(StringComparer.Ordinal);
+            (IdCounts, IdFirst) = NewIdArrays(tok);
             _session = tok.CreateSession(this);
         }
 
-        public TokenTable Table { get; } = new();
-        public long[]? IdCounts { get; }
-        public long[]? IdFirst { get; }
+        private static (long[]?, long[]?) NewIdArrays(ITokenizer tok)
+        {
+            if (tok.Identity != TokenIdentity.Ids) return (null, null);
+            var first = new long[tok.VocabularySize];
+            Array.Fill(first, long.MaxValue);
+            return (new long[tok.VocabularySize], first);
+        }
+
+        public TokenTable Table { get; private set; } = new();
+        public long[]? IdCounts { get; private set; }
+        public long[]? IdFirst { get; private set; }
         public SourceStats Stats { get; } = new();
         public long Tokens => _tokensBefore + _pos;
+        /// <summary>Grouped counting: this worker's table (or id arrays) per group label; null when not grouped.</summary>
+        public Dictionary<string, GroupPart>? Groups { get; }
+        /// <summary>Spill runs written for groups.</summary>
+        public int GroupRuns { get; private set; }
 
-        public void Begin(int unit) { _unit = unit; _pos = 0; }
+        public void Begin(int unit) { _unit = unit; _pos = 0; _groupFrom = 0; }
 
         public long End()
         {
             long n = _pos;
+            if (_group is not null) _group.Tokens += _pos - _groupFrom;
+            _groupFrom = 0;
             _tokensBefore += n;
             _pos = 0;
             return n;
+        }
+
+        /// <summary>Switches to the group's table; documents only start between calls, so no token is split.</summary>
+        public void BeginGroup(string label)
+        {
+            if (Groups is null) return;
+            if (_group is not null) _group.Tokens += _pos - _groupFrom;
+            if (!Groups.TryGetValue(label, out var g))
+            {
+                var (counts, first) = NewIdArrays(_tok);
+                Groups[label] = g = new GroupPart(label, _groupSpill!(label), counts, first);
+            }
+            g.Documents++;
+            _group = g;
+            _groupFrom = _pos;
+            Table = g.Table; IdCounts = g.IdCounts; IdFirst = g.IdFirst;
+        }
+
+        private void CheckMemory()
+        {
+            if (Groups is null)
+            {
+                if (Table.MemoryBytes > _budget) _spill.Spill(Table);
+                return;
+            }
+            long total = 0;
+            foreach (var g in Groups.Values) total += g.Table.MemoryBytes;
+            if (total <= _budget) return;
+            foreach (var g in Groups.Values)
+                if (g.Table.Count > 0) { g.Spill.Spill(g.Table); GroupRuns++; }
         }
 
         public void Write(ReadOnlySpan<byte> utf8, bool endOfDocument) => _session.Feed(utf8, endOfDocument);
@@ -173,7 +261,7 @@ public static class CountEngine
         public void AddToken(ReadOnlySpan<byte> utf8)
         {
             Table.Add(utf8, 1, KeyPacking.PackPosition(_unit, _pos));
-            if ((++_pos & 0xFFFF) == 0 && Table.MemoryBytes > _budget) _spill.Spill(Table);
+            if ((++_pos & 0xFFFF) == 0) CheckMemory();
         }
 
         public void AddPackedTokens(ReadOnlySpan<PackedToken> tokens)
@@ -182,7 +270,7 @@ public static class CountEngine
             long before = _pos;
             _pos += tokens.Length;
             // memory is looked at every 65,536 tokens, as in AddToken: a run per batch would flood the spill folder
-            if ((before >> 16) != (_pos >> 16) && Table.MemoryBytes > _budget) _spill.Spill(Table);
+            if ((before >> 16) != (_pos >> 16)) CheckMemory();
         }
 
         public void AddId(int id) => AddIds(new ReadOnlySpan<int>(in id));

@@ -38,15 +38,7 @@ public static class ProfileJob
             Plots.RankFrequency(counted.Spectrum, fit), Plots.Ccdf(counted.Spectrum, fit), Plots.Spectrum(counted.Spectrum, fit),
             Plots.AlphaBootstrap(fit), Plots.Growth(growth),
         }.OfType<RenderedPlot>().ToArray();
-        var plots = new List<PlotFile>();
-        foreach (var r in rendered)
-        {
-            string svg = Path.Combine(dir, r.Name + ".svg");
-            await AtomicFile.WriteTextAsync(svg, r.Svg);
-            string? png = r.Png is null ? null : Path.Combine(dir, r.Name + ".png");
-            if (png is not null) await AtomicFile.WriteBytesAsync(png, r.Png!);
-            plots.Add(new PlotFile(r.Name, r.Title, svg, png));
-        }
+        var plots = await PlotFiles.WriteAsync(dir, rendered);
         if (Plots.Font is null)
             warnings.Add("no font file found (looked in the fontconfig folders), so PNG plots were skipped; install a font (Debian: fonts-dejavu-core) to get them. SVG plots and the report are complete.");
 

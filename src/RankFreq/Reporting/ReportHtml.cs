@@ -9,7 +9,7 @@ using RankFreq.Primitives;
 namespace RankFreq.Reporting;
 
 /// <summary>The self-contained HTML report: figures in plain words, tables, alternatives, cautions; plots inlined as SVG; no scripts, no network.</summary>
-public static class ReportHtml
+public static partial class ReportHtml
 {
     private static string F(double x, string fmt = "F3") => double.IsFinite(x) ? x.ToString(fmt, CultureInfo.InvariantCulture) : "–";
     private static string N(long x) => x.ToString("N0", CultureInfo.InvariantCulture);

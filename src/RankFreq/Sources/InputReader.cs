@@ -126,17 +126,33 @@ public static class InputReader
             if (field.ClrType != typeof(string) && field.ClrType != typeof(ReadOnlyMemory<char>))
                 throw new SourceException($"{f.Path}: column '{field.Name}' holds {field.ClrType.Name}, not text");
             var bytes = new byte[4096];
-            long lastPos = 0;
+            long lastPos = 0, row = 0;
+            var groupKey = options.Group is { Kind: GroupKind.Column } gk ? gk : null;
+            var groupField = groupKey is null ? null : ParquetGroups.Field(reader, f.Path, groupKey);
             for (int g = 0; g < reader.RowGroupCount; g++)
             {
                 ct.ThrowIfCancellationRequested();
                 using var rg = reader.OpenRowGroupReader(g);
                 var values = new string?[rg.RowCount];
                 rg.ReadAsync(field, values.AsMemory(), null, ct).GetAwaiter().GetResult();
-                foreach (string? v in values)
+                var labels = groupField is null ? null : ParquetGroups.Labels(f.Path, rg, groupField, groupKey!, ct);
+                for (int i = 0; i < values.Length; i++)
                 {
+                    string? v = values[i];
+                    row++;
                     stats.Records++;
                     if (v is null) { stats.MissingField++; continue; }
+                    if (labels is not null)
+                    {
+                        if (labels[i] is not { } label)
+                        {
+                            if (!options.SkipBadGroupValues)
+                                throw new SourceException($"{f.Path}: row {row}: column '{groupKey!.Name}' holds a value that is not a number, so it cannot be binned ({groupKey.Spec}); fix it or pass --skip-bad");
+                            stats.BadGroupValues++;
+                            continue;
+                        }
+                        (sink as IGroupSink)?.BeginGroup(label);
+                    }
                     int max = Encoding.UTF8.GetMaxByteCount(v.Length);
                     if (bytes.Length < max) bytes = new byte[max];
                     int n = Encoding.UTF8.GetBytes(v, bytes);
@@ -175,6 +191,22 @@ public static class InputReader
         private long FileLine(long local) => rangeStart > 0 ? LinesBefore(path, rangeStart) + local : local;
 
         private readonly string[] _fieldPath = options.TextField.Split('.');
+        private readonly GroupKey? _group = options.Group is { Kind: GroupKind.Field } g ? g : null;
+
+        /// <summary>Reports the record's group; false when its value cannot be binned and --skip-bad counts it instead.</summary>
+        private bool Group(ReadOnlySpan<byte> line)
+        {
+            var type = GroupKey.FindValue(line, _group!.Path, out var raw);
+            string? label = _group.LabelOfJson(type, raw, out var problem);
+            if (label is null)
+            {
+                if (!options.SkipBadGroupValues) throw new SourceException($"{path}:{FileLine(_lineNo)}: {problem}; fix the record or pass --skip-bad");
+                stats.BadGroupValues++;
+                return false;
+            }
+            (sink as IGroupSink)?.BeginGroup(label);
+            return true;
+        }
         private byte[] _line = new byte[1 << 16];
         private int _lineLen;
         private long _lineNo;
@@ -228,6 +260,7 @@ public static class InputReader
                 if (++stats.MissingField <= 100) NoteFields(line);
                 return;
             }
+            if (_group is not null && !Group(line)) return;
             sink.Write(_value.AsSpan(0, len), true);
         }
 

@@ -20,6 +20,12 @@ public sealed record SourceOptions(
     /// <summary>Compressed files at least this large (stored size) are decompressed on a second thread while counting.</summary>
     public long ReadAheadAboveBytes { get; init; } = 4L << 20;
 
+    /// <summary>Per-record group key (<c>field:</c> or <c>column:</c>), reported to an <see cref="IGroupSink"/> before each record.</summary>
+    public GroupKey? Group { get; init; }
+
+    /// <summary>Skip (and count) records whose group value cannot be binned instead of failing.</summary>
+    public bool SkipBadGroupValues { get; init; }
+
     /// <summary>Files and folders never taken from a folder input: a job's own outputs, so that a second run over a
     /// folder holding them does not read the first run's tables.</summary>
     public IReadOnlyList<string>? SkipPaths { get; init; }

@@ -15,6 +15,8 @@ public sealed class SourceStats
     public long MalformedRecords;
     /// <summary>Records without the text field (or with a non-string value).</summary>
     public long MissingField;
+    /// <summary>Records skipped because their group value could not be binned (with --skip-bad).</summary>
+    public long BadGroupValues;
 
     /// <summary>Top-level field names of the first records that lacked the text field, in order of first sight.</summary>
     public List<string> FieldsSeen { get; } = [];
@@ -25,5 +27,6 @@ public sealed class SourceStats
         foreach (var f in o.FieldsSeen) if (!FieldsSeen.Contains(f)) FieldsSeen.Add(f);
         StoredBytes += o.StoredBytes; TextBytes += o.TextBytes; ReplacedBytes += o.ReplacedBytes;
         Records += o.Records; MalformedRecords += o.MalformedRecords; MissingField += o.MissingField;
+        BadGroupValues += o.BadGroupValues;
     }
 }

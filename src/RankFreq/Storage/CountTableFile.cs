@@ -27,23 +27,29 @@ public static class CountTableFile
             foreach (var b in rows.Batches())
             {
                 ct.ThrowIfCancellationRequested();
-                var tokens = b.Tokens;
-                if (meta.RedactedBelow > 1)
-                {
-                    tokens = (string?[])tokens.Clone();
-                    for (int i = 0; i < tokens.Length; i++) if (b.Counts[i] < meta.RedactedBelow) tokens[i] = null;
-                }
-                var ranks = new long[b.Counts.Length];
-                for (int i = 0; i < ranks.Length; i++) ranks[i] = b.FirstRank + i;
-                var data = new List<Array> { tokens };
-                if (hasIds) data.Add(b.TokenIds ?? throw new InvalidOperationException("ids missing"));
-                data.Add(b.Counts);
-                data.Add(ranks);
-                w.WriteRowGroup(b.Counts.Length, data);
+                w.WriteRowGroup(b.Counts.Length, BatchColumns(b, hasIds, meta.RedactedBelow));
             }
             w.Finish();
             return Task.CompletedTask;
         });
+
+    /// <summary>The token (redacted below <paramref name="redactBelow"/>), token_id, count and rank columns of a batch.</summary>
+    internal static List<Array> BatchColumns(CountRowBatch b, bool hasIds, long redactBelow)
+    {
+        var tokens = b.Tokens;
+        if (redactBelow > 1)
+        {
+            tokens = (string?[])tokens.Clone();
+            for (int i = 0; i < tokens.Length; i++) if (b.Counts[i] < redactBelow) tokens[i] = null;
+        }
+        var ranks = new long[b.Counts.Length];
+        for (int i = 0; i < ranks.Length; i++) ranks[i] = b.FirstRank + i;
+        var data = new List<Array> { tokens };
+        if (hasIds) data.Add(b.TokenIds ?? throw new InvalidOperationException("ids missing"));
+        data.Add(b.Counts);
+        data.Add(ranks);
+        return data;
+    }
 
     /// <summary>Opens a count table; throws <see cref="StorageException"/> if it is not one.</summary>
     public static async Task<CountTableReader> OpenAsync(string path, CancellationToken ct = default)

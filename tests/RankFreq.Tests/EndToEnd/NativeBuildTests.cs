@@ -86,6 +86,20 @@ public class NativeBuildTests
                 using var j = JsonDocument.Parse(o);
                 Assert.Equal(rt.Summary.Tokens, j.RootElement.GetProperty("tokens").GetInt64());
             }
+        // contrast: grouped counting, thinning, nullable Parquet columns, the same figures as in process
+        string[] contrast = ["contrast", demo, "--by", "file", "--reps", "0", "--boot-reps", "20", "--thin-reps", "4", "--json"];
+        (code, o, e) = Run(exe, [.. contrast, "-o", d["c"]]);
+        Assert.True(code == 0, e);
+        Assert.True(File.Exists(Path.Combine(d["c"], "groups.parquet")) && File.Exists(Path.Combine(d["c"], "report.html")));
+        var (c3, o3, e3) = Cli.Run(contrast);
+        Assert.True(c3 == 0, e3);
+        using (var a = JsonDocument.Parse(o))
+        using (var b = JsonDocument.Parse(o3))
+        {
+            var ga = a.RootElement.GetProperty("groups").EnumerateArray().Select(g => g.GetProperty("alpha").GetDouble()).ToArray();
+            var gb = b.RootElement.GetProperty("groups").EnumerateArray().Select(g => g.GetProperty("alpha").GetDouble()).ToArray();
+            Assert.Equal(gb, ga);
+        }
 
         // errors keep their exit codes
         Assert.Equal(1, Run(exe, "count", d["missing.txt"], "-o", d["x.parquet"]).Code);
