@@ -10,12 +10,18 @@ using RankFreq.Jobs;
 //   dotnet run -c Release --project benchmarks/RankFreq.Benchmarks -- replicate   spectrum-level vs per-type replicate, one run
 //   dotnet run -c Release --project benchmarks/RankFreq.Benchmarks -- make-spectrum FILE   10^6 types, α = 2, xmin = 1
 //   dotnet run -c Release --project benchmarks/RankFreq.Benchmarks -- bdn [filters]  BenchmarkDotNet kernels
+//   ... -- zipf-spectrum TOKENS FILE [s] [seed]   Zipf-like spectrum (value,types lines); flat-spectrum K FILE [seed]
+//   ... -- xmin-search FILE [full]   α fits alone, pruned xmin search (and the full reference scan), one run
+//   ... -- tail-spectrum CORPUS OUT   words-tokenizer tail spectrum at the chosen xmin (input of the alternatives reference)
 //   ... -- words-kernel FILE       words tokenizer alone and with the table, one thread, best of seven
 //   ... -- count-phases FILE       whole counting run in process, then the Parquet write, twice
 //   ... -- stages FILE / subword-stages FILE   where counting time goes, by stage
 //   ... -- encode-whole FILE       the o200k_base baseline: the library's EncodeToIds over the whole text
 //   ... -- load-vocab              stages of loading o200k_base
 //   ... -- write-cold N flat|zstd|snappy|none [x]   one count-table-shaped file written in a fresh process
+if (args.Length > 2 && args[0] is "zipf-spectrum" or "flat-spectrum") { ZipfSpectrum.Run(args); return; }
+if (args.Length > 1 && args[0] == "xmin-search") { XminSearchTiming.Run(args[1], args.Length > 2 && args[2] == "full"); return; }
+if (args.Length > 2 && args[0] == "tail-spectrum") { TailSpectrum.Run(args[1], args[2]); return; }
 if (args.Length > 0 && args[0] == "replicate") { ReplicateComparison.Run(); return; }
 if (args.Length > 1 && args[0] == "words-kernel")
 {

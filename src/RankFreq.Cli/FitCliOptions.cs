@@ -14,7 +14,7 @@ internal sealed class FitCliOptions(int defaultReps)
     public readonly Option<int> Reps = new("--reps") { Description = $"Goodness-of-fit bootstrap replicates (0 skips; 2,500 give p to ±0.01)", DefaultValueFactory = _ => defaultReps };
     public readonly Option<int> CiReps = new("--ci-reps") { Description = "Bootstrap replicates for the uncertainty of alpha and xmin (0 skips)", DefaultValueFactory = _ => Math.Min(1000, Math.Max(defaultReps, 200)) };
     public readonly Option<ulong> Seed = new("--seed") { Description = "Seed of every random draw", DefaultValueFactory = _ => 1UL };
-    public readonly Option<string> Alternatives = new("--alternatives") { Description = "Families to compare with: all, none, or a list of lognormal,exponential,stretched_exponential,power_law_cutoff", DefaultValueFactory = _ => "all" };
+    public readonly Option<string> Alternatives = new("--alternatives") { Description = "Families to compare with: all, none, or a list of discrete_lognormal,geometric,discrete_weibull,power_law_cutoff (lognormal, exponential, stretched_exponential also accepted)", DefaultValueFactory = _ => "all" };
 
     public void AddTo(Command c)
     {
@@ -35,8 +35,8 @@ internal sealed class FitCliOptions(int defaultReps)
             "none" => [],
             _ => alt.Split(',', StringSplitOptions.RemoveEmptyEntries | StringSplitOptions.TrimEntries),
         };
-        foreach (var a in alts)
-            if (!Fitting.Alternatives.Names.Contains(a)) throw new UsageException($"--alternatives: unknown family '{a}' (choose from {string.Join(", ", Fitting.Alternatives.Names)})");
+        alts = alts.Select(a => Fitting.Alternatives.Canonical(a)
+            ?? throw new UsageException($"--alternatives: unknown family '{a}' (choose from {string.Join(", ", Fitting.Alternatives.Names)})")).Distinct().ToArray();
         return new FitOptions(minTail, xmin, reps, ci, pr.GetValue(Seed), threads, alts);
     }
 }
