@@ -13,6 +13,7 @@ using RankFreq.Jobs;
 //   ... -- zipf-spectrum TOKENS FILE [s] [seed]   Zipf-like spectrum (value,types lines); flat-spectrum K FILE [seed]
 //   ... -- xmin-search FILE [full]   α fits alone, pruned xmin search (and the full reference scan), one run
 //   ... -- tail-spectrum CORPUS OUT   words-tokenizer tail spectrum at the chosen xmin (input of the alternatives reference)
+//   ... -- replicate-timing FILE N   CPU time of N bootstrap replicates: drawing vs xmin search
 //   ... -- words-kernel FILE       words tokenizer alone and with the table, one thread, best of seven
 //   ... -- count-phases FILE       whole counting run in process, then the Parquet write, twice
 //   ... -- stages FILE / subword-stages FILE   where counting time goes, by stage
@@ -22,6 +23,7 @@ using RankFreq.Jobs;
 if (args.Length > 2 && args[0] is "zipf-spectrum" or "flat-spectrum") { ZipfSpectrum.Run(args); return; }
 if (args.Length > 1 && args[0] == "xmin-search") { XminSearchTiming.Run(args[1], args.Length > 2 && args[2] == "full"); return; }
 if (args.Length > 2 && args[0] == "tail-spectrum") { TailSpectrum.Run(args[1], args[2]); return; }
+if (args.Length > 2 && args[0] == "replicate-timing") { ReplicateTiming.Run(args[1], int.Parse(args[2])); return; }
 if (args.Length > 0 && args[0] == "replicate") { ReplicateComparison.Run(); return; }
 if (args.Length > 1 && args[0] == "words-kernel")
 {

@@ -7,7 +7,9 @@ namespace RankFreq.Fitting;
 /// Euler–Maclaurin summation (NIST DLMF §2.10 and §25.11): N direct terms bring the argument to a = q + N ≥ 12, then
 /// ζ(s, q) = Σ_{k&lt;N} (q+k)^−s + a^{1−s}/(s−1) + a^−s/2 + Σ_{j=1}^{12} B_{2j}/(2j)! · s(s+1)…(s+2j−2) · a^{−s−2j+1};
 /// derivatives in s are taken term by term. Tested against 50-digit mpmath values for s ∈ [1.05, 6], q ∈ [1, 10^6]
-/// (tests/RankFreq.Tests/Data/hurwitz-mpmath.csv): relative error ≤ 1e-12 for ζ and ∂ζ/∂s.
+/// (tests/RankFreq.Tests/Data/hurwitz-mpmath.csv): relative error ≤ 1e-12 for ζ and ∂ζ/∂s. <see cref="Log"/> runs the same
+/// sums scaled by q^s, so ln ζ stays finite where ζ underflows (q = 10^12 with s near 30); it is checked against the
+/// unscaled sums where both are finite and, through the fits, on counts near 10^12 (Fitting/FitEdgeTests.cs).
 /// </remarks>
 public static class HurwitzZeta
 {

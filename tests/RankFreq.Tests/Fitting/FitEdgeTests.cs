@@ -23,6 +23,20 @@ public class FitEdgeTests
             Enum.GetValues<FitStatus>().Select(FitStatusNames.Of));
     }
 
+    [Theory]
+    // mpmath 1.3.0 at 40 digits: log(zeta(s, q)) and zeta(s, q, 1)/zeta(s, q) (ζ(30, 10^12) ≈ 10^−350 underflows a double)
+    [InlineData(30, 1e12, -804.66690819189987207, -27.665503874548737863)]
+    [InlineData(26.97, 1e12, -720.83456040632603759, -27.669527084353154101)]
+    [InlineData(2.5, 1e12, -41.851996782000236694, -28.297687782594714875)]
+    [InlineData(1.5, 7, -0.24348942255474234569, -3.8737612775293648884)]
+    public void LogZetaIsFiniteWhereZetaUnderflows(double s, double q, double ln, double r1)
+    {
+        var z = HurwitzZeta.Log(s, q);
+        Assert.True(Math.Abs(z.Ln / ln - 1) < 1e-13, $"ln ζ({s}, {q}) = {z.Ln:R}");
+        Assert.True(Math.Abs(z.R1 / r1 - 1) < 1e-13, $"ζ'/ζ({s}, {q}) = {z.R1:R}");
+        if (s < 20) Assert.Equal(Math.Log(HurwitzZeta.Value(s, q)), z.Ln, 12); // the unscaled sums, where finite
+    }
+
     [Fact]
     public void AllEqualCountsAreSaidToBeEqual()
     {
