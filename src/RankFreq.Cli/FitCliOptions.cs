@@ -16,7 +16,12 @@ internal sealed class FitCliOptions(int defaultReps)
     public readonly Option<int> CiReps = WholeNumber.Option<int>("--ci-reps", 0,
         "Bootstrap replicates for the uncertainty of alpha and xmin (0 skips)", Math.Min(1000, Math.Max(defaultReps, 200)));
     public readonly Option<ulong> Seed = WholeNumber.Option<ulong>("--seed", 0, "Seed of every random draw", 1UL);
-    public readonly Option<string> Alternatives = new("--alternatives") { Description = "Families to compare with: all, none, or a list of lognormal,exponential,stretched_exponential,power_law_cutoff", DefaultValueFactory = _ => "all" };
+    public readonly Option<string> Alternatives = new("--alternatives")
+    {
+        Description = "Families to compare with: all, none, or a list of discrete_lognormal,geometric,discrete_weibull,"
+            + "power_law_cutoff (lognormal, exponential, stretched_exponential also accepted)",
+        DefaultValueFactory = _ => "all",
+    };
 
     public void AddTo(Command c)
     {
@@ -37,8 +42,8 @@ internal sealed class FitCliOptions(int defaultReps)
             "none" => [],
             _ => alt.Split(',', StringSplitOptions.RemoveEmptyEntries | StringSplitOptions.TrimEntries),
         };
-        foreach (var a in alts)
-            if (!Fitting.Alternatives.Names.Contains(a)) throw new UsageException($"--alternatives: unknown family '{a}' (choose from {string.Join(", ", Fitting.Alternatives.Names)})");
+        alts = alts.Select(a => Fitting.Alternatives.Canonical(a)
+            ?? throw new UsageException($"--alternatives: unknown family '{a}' (choose from {string.Join(", ", Fitting.Alternatives.Names)})")).Distinct().ToArray();
         return new FitOptions(minTail, xmin, reps, ci, pr.GetValue(Seed), threads, alts);
     }
 }

@@ -5,7 +5,7 @@ using MathNet.Numerics.Optimization;
 namespace RankFreq.Fitting;
 
 /// <summary>Comparison of the power law with another heavy-tailed family on the same tail x ≥ xmin.</summary>
-/// <param name="Name">lognormal, exponential, stretched_exponential or power_law_cutoff.</param>
+/// <param name="Name">discrete_lognormal, geometric, discrete_weibull or power_law_cutoff (see <see cref="Alternatives"/>).</param>
 /// <param name="Parameters">Maximum-likelihood parameters of the alternative.</param>
 /// <param name="LogLikelihood">Its log-likelihood on the tail.</param>
 /// <param name="Llr">Σ (ln p_power_law − ln p_alternative): positive favours the power law.</param>

@@ -7,7 +7,9 @@ namespace RankFreq.Fitting;
 /// Euler–Maclaurin summation (NIST DLMF §2.10 and §25.11): N direct terms bring the argument to a = q + N ≥ 12, then
 /// ζ(s, q) = Σ_{k&lt;N} (q+k)^−s + a^{1−s}/(s−1) + a^−s/2 + Σ_{j=1}^{12} B_{2j}/(2j)! · s(s+1)…(s+2j−2) · a^{−s−2j+1};
 /// derivatives in s are taken term by term. Tested against 50-digit mpmath values for s ∈ [1.05, 6], q ∈ [1, 10^6]
-/// (tests/RankFreq.Tests/Data/hurwitz-mpmath.csv): relative error ≤ 1e-12 for ζ and ∂ζ/∂s.
+/// (tests/RankFreq.Tests/Data/hurwitz-mpmath.csv): relative error ≤ 1e-12 for ζ and ∂ζ/∂s. <see cref="Log"/> runs the same
+/// sums scaled by q^s, so ln ζ stays finite where ζ underflows (q = 10^12 with s near 30); it is checked against the
+/// unscaled sums where both are finite and, through the fits, on counts near 10^12 (Fitting/FitEdgeTests.cs).
 /// </remarks>
 public static class HurwitzZeta
 {
@@ -33,7 +35,24 @@ public static class HurwitzZeta
     public static double Value(double s, double q) => Evaluate(s, q, derivatives: false).Value;
 
     /// <summary>ζ(s, q), ∂ζ/∂s and ∂²ζ/∂s² (the derivatives are 0 unless requested).</summary>
-    public static ZetaValue Evaluate(double s, double q, bool derivatives = true)
+    public static ZetaValue Evaluate(double s, double q, bool derivatives = true) => Core(s, q, derivatives, 0);
+
+    /// <summary>ln ζ(s, q) alone: finite where ζ itself underflows (q = 10^12, s = 30 gives ζ ≈ 10^−350).</summary>
+    public static double LogValue(double s, double q) => Log(s, q, derivatives: false).Ln;
+
+    /// <summary>
+    /// ln ζ(s, q) with the ratios ζ'/ζ and ζ''/ζ. Every term is computed relative to q^−s (the sums are ζ·q^s, which
+    /// lies between 1 and about 1 + q/(s−1)), so nothing underflows for any s &gt; 1 and q ≤ 2^62.
+    /// </summary>
+    public static LogZeta Log(double s, double q, bool derivatives = true)
+    {
+        double shift = s * Math.Log(q);
+        var z = Core(s, q, derivatives, shift);
+        return new LogZeta(Math.Log(z.Value) - shift, z.D1 / z.Value, z.D2 / z.Value);
+    }
+
+    // Sums scaled by e^shift (every power a^−s taken as e^(shift − s ln a)); shift = 0 gives ζ itself.
+    private static ZetaValue Core(double s, double q, bool derivatives, double shift)
     {
         if (!(s > 1)) throw new ArgumentOutOfRangeException(nameof(s), s, "Hurwitz zeta needs s > 1");
         if (!(q > 0)) throw new ArgumentOutOfRangeException(nameof(q), q, "Hurwitz zeta needs q > 0");
@@ -41,7 +60,7 @@ public static class HurwitzZeta
         double a = q;
         while (a < MinA)
         {
-            double t = Math.Pow(a, -s);
+            double t = shift == 0 ? Math.Pow(a, -s) : Math.Exp(shift - s * Math.Log(a));
             z += t;
             if (derivatives)
             {
@@ -52,7 +71,7 @@ public static class HurwitzZeta
             a += 1;
         }
         double la = Math.Log(a);
-        double apow = Math.Exp(-s * la);          // a^-s
+        double apow = Math.Exp(shift - s * la);   // a^-s (scaled)
         double integral = apow * a / (s - 1);     // a^(1-s)/(s-1)
         double half = 0.5 * apow;
         z += integral + half;

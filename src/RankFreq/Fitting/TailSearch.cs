@@ -5,17 +5,42 @@ namespace RankFreq.Fitting;
 /// KS distance over the integers of the tail, and the xmin search of Clauset, Shalizi &amp; Newman (2009, §3.3).
 /// Works on (value, multiplicity) pairs; suffix sums make each candidate's likelihood O(1) to set up.
 /// </summary>
+/// <remarks>
+/// Everything is computed in log space: ln ζ(α, x) (<see cref="HurwitzZeta.Log"/>) and model tail masses
+/// P(X ≥ x) = exp(ln ζ(α, x) − ln ζ(α, xmin)), so counts near 10^12 (where ζ(α, xmin) underflows) are fitted the same
+/// way as small ones.
+/// <para>Cost. The full scan evaluates every candidate's KS distance point by point; its cost is O(k²) in the number k
+/// of distinct values wherever the early stops do not bite (42 s for 10^5 values). <see cref="Ks"/> walks the first
+/// values one by one, then keeps the rest as blocks of consecutive values, splitting the block with the largest bound
+/// first, and stops when no open block can raise the distance. Proof sketch that the pruning is exact: on the integers
+/// of a block [v_a, v_{b+1} − 1] both CDFs are non-decreasing, the empirical F between F(v_a) and F(v_b) and the model
+/// G between G(v_a) and G(v_{b+1} − 1); so every |F(x) − G(x)| in the block is at most
+/// U = max(F(v_b) − G(v_a), G(v_{b+1} − 1) − F(v_a)). A block with U ≤ d (the largest distance already seen at real
+/// points) cannot change the supremum; every other block is split until single values, whose points are evaluated.
+/// So the returned supremum equals the full scan's up to the rounding of the tail masses (~1e-13).
+/// The search visits every stride-th candidate first (stride √(candidates)) and then the rest, abandoning a candidate as
+/// soon as its distance reaches the best so far; a candidate of lower index than the current best is abandoned only
+/// strictly above it, and equal distances go to the lower index, which is the full scan's rule (first strict minimum)
+/// — so the chosen xmin is the full scan's, and α is the same Newton root (to its 1e-11 relative tolerance, as the
+/// warm starts differ). Costs: a candidate's α fit is O(1) zeta evaluations; its KS walk O(log k) per block that
+/// cannot be pruned, and only blocks whose CDF change is comparable to d survive, so in practice the search is
+/// close to O(k log k). <see cref="SearchFullScan"/> keeps the point-by-point scan as the reference.</para>
+/// </remarks>
 public sealed class TailSearch
 {
-    /// <summary>Largest α considered; a maximum beyond it is reported as <see cref="FitStatus.Boundary"/>.</summary>
+    /// <summary>Largest α considered; a likelihood still rising there is reported as <see cref="FitStatus.AtBound"/>
+    /// or <see cref="FitStatus.NoMaximum"/>.</summary>
     public const double MaxAlpha = 30;
     private const double MinAlpha = 1 + 1e-9;
+    private const int Prefix = 8; // values walked one by one before the blocks take over
+    private const long DenseSpan = 16; // runs of integers this short are stepped through term by term
 
     private readonly long[] _v;
     private readonly long[] _m;
     private readonly int _k;
     private readonly long[] _nSuffix;     // Σ_{j≥i} m_j
     private readonly double[] _lnSuffix;  // Σ_{j≥i} m_j ln v_j
+    private readonly double[] _lnV;       // ln v_j
 
     /// <summary>Prepares the suffix sums for a spectrum given as parallel arrays (values strictly increasing, first <paramref name="count"/> used).</summary>
     public TailSearch(long[] values, long[] mult, int count)
@@ -23,10 +48,12 @@ public sealed class TailSearch
         _v = values; _m = mult; _k = count;
         _nSuffix = new long[count + 1];
         _lnSuffix = new double[count + 1];
+        _lnV = new double[count];
         for (int i = count - 1; i >= 0; i--)
         {
+            _lnV[i] = Math.Log(values[i]);
             _nSuffix[i] = _nSuffix[i + 1] + mult[i];
-            _lnSuffix[i] = _lnSuffix[i + 1] + mult[i] * Math.Log(values[i]);
+            _lnSuffix[i] = _lnSuffix[i + 1] + mult[i] * _lnV[i];
         }
     }
 
@@ -41,7 +68,10 @@ public sealed class TailSearch
         return lo;
     }
 
-    /// <summary>MLE of α for the tail starting at value index <paramref name="i"/> (xmin = its value, or <paramref name="xmin"/> if given).</summary>
+    /// <summary>
+    /// MLE of α for the tail starting at value index <paramref name="i"/> (xmin = its value, or <paramref name="xmin"/> if
+    /// given). Status <see cref="FitStatus.AtBound"/> with α = <see cref="MaxAlpha"/> when the likelihood still rises there.
+    /// </summary>
     public PowerLawFit FitAt(int i, double warmAlpha = 2, long xmin = 0)
     {
         if (xmin <= 0) xmin = _v[i];
@@ -50,134 +80,333 @@ public sealed class TailSearch
         if (n == 0) return new PowerLawFit(double.NaN, double.NaN, double.NaN, xmin, 0, double.NaN, double.NaN, 0, FitStatus.TooFewPoints, "no types at or above xmin");
         double meanLn = sumLn / n;
         double approx = 1 + n / (sumLn - n * Math.Log(xmin - 0.5));
-        if (i == _k - 1 || meanLn - Math.Log(xmin) < 1e-12)
+        if (i == _k - 1)
             return new PowerLawFit(double.NaN, double.NaN, approx, xmin, n, double.NaN, double.NaN, 0, FitStatus.AllEqual,
-                $"every count in the tail equals {xmin}: the likelihood has no finite maximum; lower xmin or use more data");
-        // score(α)/n = −meanLn − ζ'/ζ, decreasing in α; keep a bracket [lo, hi] around its root
+                _v[i] == xmin
+                    ? $"all {n:N0} counts at or above xmin = {xmin:N0} equal it: the likelihood has no finite maximum "
+                        + "(it rises with α without bound); use a lower xmin"
+                    : $"all {n:N0} counts at or above xmin = {xmin:N0} equal {_v[i]:N0}: a single value has no tail shape to fit");
+        // score(α)/n = E_α[ln X] − meanLn = −ζ'/ζ − meanLn, decreasing in α; keep a bracket [lo, hi] around its root
         double lo = MinAlpha, hi = MaxAlpha;
         double a = double.IsFinite(warmAlpha) && warmAlpha > lo && warmAlpha < hi ? warmAlpha : Math.Clamp(approx, 1.05, hi - 1);
         int it = 0;
-        ZetaValue z = default;
+        bool capTried = false, atCap = false;
+        LogZeta z = default;
+        double evaluated = double.NaN; // where z was taken
         for (; it < 100; it++)
         {
-            z = HurwitzZeta.Evaluate(a, xmin);
-            double r1 = z.D1 / z.Value;
-            double score = -meanLn - r1;
-            double info = z.D2 / z.Value - r1 * r1; // −score'
+            z = HurwitzZeta.Log(a, xmin);
+            evaluated = a;
+            double score = -meanLn - z.R1;
+            double info = z.R2 - z.R1 * z.R1; // −score'
             if (score > 0) lo = a; else hi = a;
             double next = a + score / info;
-            if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
-            if (Math.Abs(next - a) < 1e-11 * a || hi - lo < 1e-12)
+            if (!(next > lo && next < hi))
             {
-                a = next;
-                break;
+                if (hi == MaxAlpha && !capTried)
+                {
+                    // the step leaves the range upwards: is the likelihood still rising at the cap?
+                    capTried = true;
+                    var zc = HurwitzZeta.Log(MaxAlpha, xmin, derivatives: true);
+                    if (-meanLn - zc.R1 >= 0) { a = MaxAlpha; atCap = true; break; }
+                }
+                next = 0.5 * (lo + hi);
             }
+            // converged: a is within the last (tiny) step of the root; keep it, where z was evaluated
+            if (Math.Abs(next - a) < 1e-11 * a || hi - lo < 1e-12) break;
             a = next;
         }
-        z = HurwitzZeta.Evaluate(a, xmin);
-        double ratio = z.D1 / z.Value;
-        double fisher = n * (z.D2 / z.Value - ratio * ratio);
-        double ll = -a * sumLn - n * Math.Log(z.Value);
+        var zf = a == evaluated ? z : HurwitzZeta.Log(a, xmin);
+        double fisher = n * (zf.R2 - zf.R1 * zf.R1);
+        double ll = -a * sumLn - n * zf.Ln;
         var status = FitStatus.Ok;
         string msg = "";
-        if (a > MaxAlpha - 1e-6) { status = FitStatus.Boundary; msg = $"α reached the limit {MaxAlpha}: the tail is too short or too steep for a power law"; }
-        else if (it >= 100) { status = FitStatus.NotConverged; msg = "Newton iteration did not converge"; }
+        if (atCap)
+        {
+            status = FitStatus.AtBound;
+            msg = $"the likelihood still rises at α = {MaxAlpha} (the largest exponent considered) for xmin = {xmin:N0}";
+        }
+        else if (it >= 100) { status = FitStatus.NotConverged; msg = $"Newton iteration for α did not converge at xmin = {xmin:N0}"; }
         return new PowerLawFit(a, 1 / Math.Sqrt(fisher), approx, xmin, n, double.NaN, ll, it + 1, status, msg);
     }
 
     /// <summary>
     /// KS distance between the tail's empirical CDF and the fitted model, supremum over every integer x ≥ xmin.
-    /// Between two observed values the empirical CDF is flat while the model rises, so both ends of each gap are checked.
-    /// Stops early when the distance already exceeds <paramref name="giveUpAbove"/> or when the remaining mass of both
-    /// CDFs is below the distance found so far (nothing later can exceed it).
+    /// Between two observed values the empirical CDF is flat while the model rises, so both ends of each gap count.
+    /// Returns as soon as the distance reaches <paramref name="giveUpAbove"/> (the value returned is then only a lower
+    /// bound); blocks of values that provably cannot raise the distance are skipped (see the type's remarks).
     /// </summary>
     public double Ks(int i, double alpha, double giveUpAbove = double.PositiveInfinity, long xmin = 0)
     {
-        if (xmin <= 0) xmin = _v[i];
-        double n = _nSuffix[i];
-        double z0 = HurwitzZeta.Value(alpha, xmin);
-        double inv = 1 / z0;
-        double d = 0;
-        long cum = 0;
-        // model tail mass above x is ζ(α, x+1)/ζ(α, xmin); walk the observed values
-        long x = xmin;
-        double zx = z0; // ζ(α, x)
-        if (_v[i] > xmin)
-        {
-            // empirical CDF is 0 on [xmin, v_i): the largest gap is at v_i − 1
-            double zAt = HurwitzZeta.Value(alpha, _v[i]);
-            d = 1 - zAt * inv;
-            x = _v[i]; zx = zAt;
-        }
-        for (int j = i; j < _k; j++)
-        {
-            long v = _v[j];
-            if (v != x)
-            {
-                zx = v - x <= 8 ? StepDown(zx, alpha, x, v) : HurwitzZeta.Value(alpha, v);
-                x = v;
-            }
-            cum += _m[j];
-            double s = cum / n;
-            double zNext = zx - Math.Exp(-alpha * Math.Log(v)); // ζ(α, v+1)
-            double p = 1 - zNext * inv;                          // model CDF at v
-            double diff = Math.Abs(s - p);
-            if (diff > d) d = diff;
-            if (j + 1 < _k && _v[j + 1] > v + 1)
-            {
-                // model CDF at v_{j+1} − 1 while the empirical CDF stays at s
-                double zGap = HurwitzZeta.Value(alpha, _v[j + 1]);
-                double pg = 1 - zGap * inv;
-                diff = Math.Abs(s - pg);
-                if (diff > d) d = diff;
-                zx = zGap; x = _v[j + 1];
-            }
-            else { zx = zNext; x = v + 1; }
-            if (d >= giveUpAbove) return d;
-            if (1 - s < d && zNext * inv < d) break;
-        }
-        return d;
+        var w = new KsWalk(this, i, alpha, xmin, giveUpAbove);
+        // the first values one by one (cheap steps; most poor candidates fail here), then the blocks, largest bound first
+        int j = i;
+        int end = Math.Min(_k, i + Prefix);
+        for (; j < end; j++)
+            if (w.Leaf(j) || w.Done) return w.D;
+        if (j < _k) w.Blocks(j, _k - 1, w.T, _heap ??= new BlockHeap());
+        return w.D;
     }
 
-    private static double StepDown(double z, double alpha, long from, long to)
+    private BlockHeap? _heap; // scratch of Ks: an instance is used by one thread at a time
+
+    /// <summary>Reference: the same distance by visiting every value (with the early stops of the old scan).</summary>
+    internal double KsFullScan(int i, double alpha, double giveUpAbove = double.PositiveInfinity, long xmin = 0)
     {
-        for (long t = from; t < to; t++) z -= Math.Exp(-alpha * Math.Log(t));
-        return z;
+        var w = new KsWalk(this, i, alpha, xmin, giveUpAbove);
+        for (int j = i; j < _k; j++)
+        {
+            if (w.Leaf(j) || w.Done) break;
+            // nothing later can exceed d once both remaining masses are below it
+            if (1 - w.C / w.N < w.D && w.T < w.D) break;
+        }
+        return w.D;
+    }
+
+    /// <summary>State of one KS walk: model tail masses T(x) = P(X ≥ x) in log space, empirical cumulative count C.</summary>
+    private struct KsWalk
+    {
+        private readonly TailSearch _s;
+        private readonly double _alpha, _lnZ0, _giveUp;
+        public readonly double N;
+        public double D, C, T;   // distance so far; empirical count through the last leaf; model mass at its next value
+        public bool Done;        // reached giveUp
+        private long _x;         // T = P(X ≥ _x)
+
+        public KsWalk(TailSearch s, int i, double alpha, long xmin, double giveUp)
+        {
+            _s = s; _alpha = alpha; _giveUp = giveUp;
+            if (xmin <= 0) xmin = s._v[i];
+            _lnZ0 = HurwitzZeta.LogValue(alpha, xmin);
+            N = s._nSuffix[i];
+            D = 0; C = 0; T = 1; _x = xmin; Done = false;
+            if (s._v[i] > xmin)
+            {
+                // the empirical CDF is 0 on [xmin, v_i): the largest gap is at v_i − 1
+                T = Tail(s._v[i]);
+                _x = s._v[i];
+                Raise(1 - T);
+            }
+        }
+
+        private readonly double Tail(long x) => Math.Exp(HurwitzZeta.LogValue(_alpha, x) - _lnZ0);
+        private readonly double Pmf(double lnX) => Math.Exp(-_alpha * lnX - _lnZ0);
+
+        private void Raise(double diff)
+        {
+            if (diff > D) D = diff;
+            if (D >= _giveUp) Done = true;
+        }
+
+        /// <summary>Model mass P(X ≥ v) from P(X ≥ x) = tx, stepping when the gap is short.</summary>
+        private readonly double TailAt(long v, double tx, long x)
+        {
+            if (v == x) return tx;
+            if (v - x > DenseSpan) return Tail(v);
+            for (long t = x; t < v; t++) tx -= Pmf(Math.Log(t));
+            return tx;
+        }
+
+        /// <summary>Evaluates the points x = v_j and x = v_{j+1} − 1; true when the walk can stop (both masses spent).</summary>
+        public bool Leaf(int j)
+        {
+            long v = _s._v[j];
+            T = TailAt(v, T, _x);
+            _x = v;
+            C += _s._m[j];
+            double f = C / N;
+            double next = T - Pmf(_s._lnV[j]);    // P(X ≥ v + 1)
+            Raise(Math.Abs(f - (1 - next)));
+            if (Done) return true;
+            if (j + 1 < _s._k && _s._v[j + 1] > v + 1)
+            {
+                // model CDF at v_{j+1} − 1 while the empirical CDF stays at f
+                T = TailAt(_s._v[j + 1], next, v + 1);
+                _x = _s._v[j + 1];
+                Raise(Math.Abs(f - (1 - T)));
+            }
+            else { T = next; _x = v + 1; }
+            return Done || j + 1 == _s._k;
+        }
+
+        /// <summary>Empirical CDF at v_j.</summary>
+        private readonly double F(int j) => (N - _s._nSuffix[j + 1]) / N;
+
+        /// <summary>Bound on |F − G| over the integers of values a..b, from P(X ≥ v_a) = ta and P(X ≥ v_{b+1}) = tb.</summary>
+        private readonly double Bound(int a, int b, double ta, double tb) =>
+            Math.Max(F(b) - (1 - ta + Pmf(_s._lnV[a])), (1 - tb) - F(a));
+
+        /// <summary>
+        /// The values a..k−1 (a after the walked prefix, <see cref="T"/> = P(X ≥ v_a)): blocks are split largest bound
+        /// first; every split evaluates the point just before its right half exactly; the walk ends when no open
+        /// block's bound exceeds the distance found (or the distance reaches the give-up level).
+        /// </summary>
+        public void Blocks(int a, int last, double ta, BlockHeap heap)
+        {
+            heap.Clear();
+            heap.Push(new OpenBlock(Bound(a, last, ta, 0), a, last, ta, 0));
+            while (heap.Count > 0 && !Done)
+            {
+                var blk = heap.Pop();
+                if (blk.U <= D) break; // every open block is bounded by its U ≤ D
+                long span = (blk.B + 1 < _s._k ? _s._v[blk.B + 1] : _s._v[blk.B] + 1) - _s._v[blk.A];
+                if (blk.A == blk.B || span <= DenseSpan)
+                {
+                    // one value, or a short run of them: every point in it, stepping the tail mass down term by term
+                    double t = blk.Ta;
+                    for (int j = blk.A; j <= blk.B; j++)
+                    {
+                        double f = F(j);
+                        t -= Pmf(_s._lnV[j]);
+                        Raise(Math.Abs(f - (1 - t)));                                     // the point v_j
+                        long next = j + 1 < _s._k ? _s._v[j + 1] : _s._v[j] + 1;
+                        if (next > _s._v[j] + 1)
+                        {
+                            t = j == blk.B ? blk.Tb : TailAt(next, t, _s._v[j] + 1);
+                            Raise(Math.Abs(f - (1 - t)));                                 // v_{j+1} − 1
+                        }
+                    }
+                    continue;
+                }
+                int mid = (blk.A + blk.B) >> 1;
+                long vm = _s._v[mid + 1];
+                double tm = vm - _s._v[blk.A] <= DenseSpan ? TailAt(vm, blk.Ta, _s._v[blk.A]) : Tail(vm);
+                // x = v_{mid+1} − 1 is a point of the tail (v_mid itself when there is no gap): F = F(v_mid), G = 1 − tm
+                Raise(Math.Abs(F(mid) - (1 - tm)));
+                double ul = Bound(blk.A, mid, blk.Ta, tm), ur = Bound(mid + 1, blk.B, tm, blk.Tb);
+                if (ul > D) heap.Push(new OpenBlock(ul, blk.A, mid, blk.Ta, tm));
+                if (ur > D) heap.Push(new OpenBlock(ur, mid + 1, blk.B, tm, blk.Tb));
+            }
+        }
+    }
+
+    /// <summary>A block of values a..b not yet shown to stay within the distance, with its bound and tail masses.</summary>
+    private readonly record struct OpenBlock(double U, int A, int B, double Ta, double Tb);
+
+    /// <summary>Max-heap of open blocks by bound.</summary>
+    private sealed class BlockHeap
+    {
+        private OpenBlock[] _a = new OpenBlock[64];
+        public int Count;
+        public void Clear() => Count = 0;
+
+        public void Push(OpenBlock b)
+        {
+            if (Count == _a.Length) Array.Resize(ref _a, Count * 2);
+            int i = Count++;
+            while (i > 0)
+            {
+                int p = (i - 1) >> 1;
+                if (_a[p].U >= b.U) break;
+                _a[i] = _a[p]; i = p;
+            }
+            _a[i] = b;
+        }
+
+        public OpenBlock Pop()
+        {
+            var top = _a[0];
+            var last = _a[--Count];
+            int i = 0;
+            while (true)
+            {
+                int c = 2 * i + 1;
+                if (c >= Count) break;
+                if (c + 1 < Count && _a[c + 1].U > _a[c].U) c++;
+                if (_a[c].U <= last.U) break;
+                _a[i] = _a[c]; i = c;
+            }
+            if (Count > 0) _a[i] = last;
+            return top;
+        }
     }
 
     /// <summary>
     /// The full fit: xmin minimising the KS distance over candidates (observed values with at least <paramref name="minTail"/>
-    /// tail points), or the given <paramref name="fixedXmin"/>.
+    /// tail points and three distinct values), or the given <paramref name="fixedXmin"/>.
     /// </summary>
-    public PowerLawFit Search(int minTail, long fixedXmin = 0)
+    public PowerLawFit Search(int minTail, long fixedXmin = 0) => SearchCore(minTail, fixedXmin, full: false);
+
+    /// <summary>Reference implementation of <see cref="Search"/>: every candidate's KS distance point by point.</summary>
+    internal PowerLawFit SearchFullScan(int minTail, long fixedXmin = 0) => SearchCore(minTail, fixedXmin, full: true);
+
+    private PowerLawFit SearchCore(int minTail, long fixedXmin, bool full)
     {
+        long total = _nSuffix[0];
+        if (total == 1)
+            return Fail(FitStatus.TooFewPoints, fixedXmin, total, $"a single count ({_v[0]:N0}): nothing to fit");
+        if (_k == 1)
+            return Fail(FitStatus.AllEqual, fixedXmin, total,
+                $"all {total:N0} counts are equal ({_v[0]:N0}): a single value has no tail shape to fit");
         if (fixedXmin > 0)
         {
             int i = IndexOf(fixedXmin);
-            if (i >= _k) return new PowerLawFit(double.NaN, double.NaN, double.NaN, fixedXmin, 0, double.NaN, double.NaN, 0, FitStatus.TooFewPoints, $"no types with count ≥ xmin = {fixedXmin}");
+            if (i >= _k) return Fail(FitStatus.TooFewPoints, fixedXmin, 0, $"no types with count ≥ xmin = {fixedXmin:N0} (largest count {_v[_k - 1]:N0})");
             var f = FitAt(i, 2, fixedXmin);
-            if (f.Status is FitStatus.AllEqual) return f;
-            return f with { KsDistance = Ks(i, f.Alpha, double.PositiveInfinity, fixedXmin) };
+            if (f.Status is FitStatus.AllEqual or FitStatus.TooFewPoints or FitStatus.NotConverged) return f;
+            double d = full ? KsFullScan(i, f.Alpha, double.PositiveInfinity, fixedXmin) : Ks(i, f.Alpha, double.PositiveInfinity, fixedXmin);
+            f = f with { KsDistance = d };
+            return f.Status == FitStatus.AtBound ? NoMaximum(f, fixedXmin) : f;
         }
         PowerLawFit? best = null;
         double bestD = double.PositiveInfinity;
-        double warm = 2;
-        for (int i = 0; i < _k - 1 && _nSuffix[i] >= minTail; i++)
+        int bestI = -1;
+        bool anyInterior = false;
+        int candidates = 0;
+        while (candidates < _k - 2 && _nSuffix[candidates] >= minTail) candidates++;
+        // Full scan: candidates in order, each abandoned once its distance reaches the best so far. Pruned: a sample of
+        // every stride-th candidate first, so that the best distance is small early and the rest are abandoned sooner;
+        // ties go to the lower index as in the full scan (a lower-index candidate is abandoned only above the best).
+        int stride = full ? 1 : Math.Max(1, (int)Math.Sqrt(candidates));
+        for (int pass = 0; pass < (stride > 1 ? 2 : 1); pass++)
         {
-            var f = FitAt(i, warm);
-            if (f.Status != FitStatus.Ok) continue;
-            warm = f.Alpha;
-            double d = Ks(i, f.Alpha, bestD);
-            if (d < bestD) { bestD = d; best = f with { KsDistance = d }; }
+            double warm = best?.Alpha ?? 2;
+            for (int i = 0; i < candidates; i++)
+            {
+                bool sampled = i % stride == 0;
+                if (stride > 1 && sampled != (pass == 0)) continue;
+                var f = FitAt(i, warm);
+                if (f.Status is not (FitStatus.Ok or FitStatus.AtBound)) continue;
+                if (f.Status == FitStatus.Ok) { anyInterior = true; warm = f.Alpha; }
+                double giveUp = i < bestI ? Math.BitIncrement(bestD) : bestD;
+                double d = full ? KsFullScan(i, f.Alpha, giveUp) : Ks(i, f.Alpha, giveUp);
+                if (d < bestD || d == bestD && i < bestI) { bestD = d; bestI = i; best = f with { KsDistance = d }; }
+            }
         }
         if (best is null)
         {
-            long top = _k > 0 ? _v[_k - 1] : 0;
-            return new PowerLawFit(double.NaN, double.NaN, double.NaN, 0, _nSuffix[0], double.NaN, double.NaN, 0, FitStatus.TooFewPoints,
-                _nSuffix[0] < minTail
-                    ? $"only {_nSuffix[0]} types; at least {minTail} tail points are needed (--min-tail)"
-                    : $"no xmin candidate with {minTail} or more tail points gives a usable fit (largest count {top})");
+            if (total < minTail)
+                return Fail(FitStatus.TooFewPoints, 0, total, $"only {total:N0} types; at least {minTail} tail points are needed (--min-tail)");
+            if (_k == 2)
+                return Fail(FitStatus.TooFewPoints, 0, total,
+                    $"only 2 distinct counts ({_v[0]:N0} and {_v[1]:N0}): at least 3 are needed to fit a tail shape");
+            return Fail(FitStatus.NotConverged, 0, total, $"the α iteration did not converge at any of {candidates} xmin candidates");
+        }
+        if (best.Status == FitStatus.AtBound)
+        {
+            if (!anyInterior) return NoMaximum(best, 0);
+            return best with
+            {
+                Message = $"the KS-best xmin = {best.Xmin:N0} has α at the cap {MaxAlpha} with the likelihood still rising: "
+                    + "the tail there is too steep or too short for a power law; try a fixed lower --xmin or a larger --min-tail",
+            };
         }
         return best;
     }
+
+    private PowerLawFit NoMaximum(PowerLawFit f, long fixedXmin)
+    {
+        int i = IndexOf(f.Xmin);
+        long lo = _v[i], hi = _v[_k - 1];
+        double spread = _lnV[_k - 1] - _lnV[i];
+        return f with
+        {
+            Status = FitStatus.NoMaximum,
+            Message = $"no maximum of the likelihood below α = {MaxAlpha} {(fixedXmin > 0 ? $"at xmin = {fixedXmin:N0}" : "at any xmin candidate")}: "
+                + $"the tail counts ({lo:N0} … {hi:N0}, ln(max/min) = {spread:G3}) are too close together for their size to show a power law",
+        };
+    }
+
+    private static PowerLawFit Fail(FitStatus status, long xmin, long nTail, string message) =>
+        new(double.NaN, double.NaN, double.NaN, xmin, nTail, double.NaN, double.NaN, 0, status, message);
 }

@@ -123,7 +123,9 @@ public static partial class ReportHtml
     private static string Family(string name) => name switch
     {
         "power_law_cutoff" => "the power law with exponential cut-off",
-        "stretched_exponential" => "the stretched exponential",
+        "stretched_exponential" or "discrete_weibull" => "the stretched exponential (discrete Weibull)",
+        "exponential" or "geometric" => "the exponential (geometric)",
+        "lognormal" or "discrete_lognormal" => "the lognormal (discretised)",
         _ => "the " + name.Replace('_', ' '),
     };
 

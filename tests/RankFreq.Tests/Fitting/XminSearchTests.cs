@@ -1,0 +1,90 @@
+using RankFreq.Counting;
+using RankFreq.Fitting;
+using Xunit;
+
+namespace RankFreq.Tests.Fitting;
+
+public class XminSearchTests
+{
+    /// <summary>Random spectra of several shapes: power-law tails over a noisy head, sparse far tails, flat spectra.</summary>
+    private static SpectrumBuffer RandomSpectrum(ulong seed)
+    {
+        var rng = new Xoshiro(seed, 31, 0);
+        var buf = new SpectrumBuffer();
+        int shape = (int)(seed % 4);
+        if (shape == 3)
+        {
+            // flat: every value present, multiplicities unrelated to the value (no power law at all)
+            long k = 50 + rng.NextLong(2000);
+            for (long x = 1; x <= k; x++) buf.Add(x, 1 + rng.NextLong(30));
+            return buf;
+        }
+        long head = 5 + rng.NextLong(60);
+        for (long x = 1; x < head; x++) buf.Add(x, rng.NextLong(200));
+        double alpha = 1.3 + 2 * rng.NextDouble();
+        Synthetic.PowerLawTail(rng, alpha, head, 200 + rng.NextLong(shape == 2 ? 50_000 : 5000), buf);
+        return buf;
+    }
+
+    [Fact]
+    public void PrunedSearchChoosesTheFullScansXminAndAlpha()
+    {
+        // exactness of the block pruning (TailSearch remarks): the same xmin, α and KS distance as the point-by-point
+        // reference scan, on 150 random spectra of different shapes
+        for (ulong seed = 1; seed <= 150; seed++)
+        {
+            var buf = RandomSpectrum(seed);
+            var s = new TailSearch(buf.Values, buf.Mult, buf.Count);
+            var fast = s.Search(20);
+            var full = s.SearchFullScan(20);
+            Assert.Equal(full.Status, fast.Status);
+            Assert.Equal(full.Xmin, fast.Xmin);
+            // α to the Newton tolerance (1e-11 relative): the two orders warm-start the iteration from different neighbours
+            Assert.True(Math.Abs(full.Alpha - fast.Alpha) <= 1e-10 * full.Alpha, $"seed {seed}: α {fast.Alpha:R} vs {full.Alpha:R}");
+            Assert.True(Math.Abs(full.KsDistance - fast.KsDistance) <= 1e-9, $"seed {seed}: KS {fast.KsDistance:R} vs {full.KsDistance:R}");
+        }
+    }
+
+    [Fact]
+    public void PrunedKsEqualsTheFullSupremumAtEveryCandidate()
+    {
+        // without a give-up level both walks must return the supremum over every integer of the tail
+        for (ulong seed = 1; seed <= 40; seed++)
+        {
+            var buf = RandomSpectrum(seed);
+            var s = new TailSearch(buf.Values, buf.Mult, buf.Count);
+            for (int i = 0; i < buf.Count - 2; i += 1 + buf.Count / 25)
+            {
+                var f = s.FitAt(i);
+                if (f.Status != FitStatus.Ok) continue;
+                double a = s.Ks(i, f.Alpha), b = s.KsFullScan(i, f.Alpha);
+                Assert.True(Math.Abs(a - b) <= 1e-12, $"seed {seed}, candidate {i}: {a:R} vs {b:R}");
+            }
+        }
+    }
+
+    [Fact]
+    public void KsMatchesADirectSumOverEveryInteger()
+    {
+        // independent check of the walk: the model CDF summed term by term from x^−α/ζ(α, xmin), empirical CDF counted
+        // directly, supremum over every integer up to the largest value (the definition, Clauset et al. 2009, §3.3)
+        var buf = RandomSpectrum(6);
+        var s = new TailSearch(buf.Values, buf.Mult, buf.Count);
+        foreach (int i in new[] { 0, 3, 10 })
+        {
+            var f = s.FitAt(i);
+            long xmin = buf.Values[i], n = 0;
+            for (int j = i; j < buf.Count; j++) n += buf.Mult[j];
+            double z = HurwitzZeta.Value(f.Alpha, xmin), cdf = 0, d = 0;
+            long cum = 0;
+            int jj = i;
+            for (long x = xmin; x <= buf.Values[buf.Count - 1]; x++)
+            {
+                cdf += Math.Pow(x, -f.Alpha) / z;
+                if (jj < buf.Count && buf.Values[jj] == x) cum += buf.Mult[jj++];
+                d = Math.Max(d, Math.Abs(cum / (double)n - cdf));
+            }
+            Assert.True(Math.Abs(s.Ks(i, f.Alpha) - d) < 1e-9, $"candidate {i}: {s.Ks(i, f.Alpha):R} vs {d:R}");
+        }
+    }
+}
