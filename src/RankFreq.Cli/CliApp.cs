@@ -50,7 +50,8 @@ public static class CliApp
 
     private static readonly Option<bool> VerboseOption = new("--verbose")
     {
-        Description = "On an internal error, print its full detail", Recursive = true,
+        Description = "On an internal error, print its full detail",
+        Recursive = true,
     };
 
     internal static bool IsBrokenPipe(IOException e) => e.Message.Contains("Broken pipe", StringComparison.OrdinalIgnoreCase) || e.HResult == 32;
@@ -112,8 +113,12 @@ public static class CliApp
     /// <summary>The option that sets each settings property a library error may name.</summary>
     private static readonly Dictionary<string, string> OptionFor = new()
     {
-        ["MaxRecordBytes"] = "--max-record", ["MemoryBytes"] = "--memory", ["MinTail"] = "--min-tail",
-        ["TextField"] = "--text-field", ["TextColumn"] = "--text-column", ["Tokenizer"] = "--tokenizer",
+        ["MaxRecordBytes"] = "--max-record",
+        ["MemoryBytes"] = "--memory",
+        ["MinTail"] = "--min-tail",
+        ["TextField"] = "--text-field",
+        ["TextColumn"] = "--text-column",
+        ["Tokenizer"] = "--tokenizer",
     };
 
     /// <summary>Set from <c>--verbose</c> before the verb runs.</summary>

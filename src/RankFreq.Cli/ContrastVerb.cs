@@ -16,14 +16,20 @@ internal static class ContrastVerb
         var by = new Option<string?>("--by") { Description = "Group key: file, folder, field:NAME, field:NAME/WIDTH (numeric field in bins), column:NAME" };
         var groups = new Option<string?>("--groups") { Description = "File of two columns, path and group (instead of --by)" };
         var reps = new Option<int>("--reps") { Description = "Goodness-of-fit replicates per group (0 skips)", DefaultValueFactory = _ => 200 };
-        var bootReps = new Option<int>("--boot-reps") { Description = "Bootstrap replicates per group for the intervals and tests",
-            DefaultValueFactory = _ => 200 };
+        var bootReps = new Option<int>("--boot-reps")
+        {
+            Description = "Bootstrap replicates per group for the intervals and tests",
+            DefaultValueFactory = _ => 200
+        };
         var thinReps = new Option<int>("--thin-reps") { Description = "Thinning replicates per group at matched size", DefaultValueFactory = _ => 50 };
         var noMatch = new Option<bool>("--no-match") { Description = "Compare at the groups' own sizes only (no thinning)" };
         var minTail = new Option<int>("--min-tail") { Description = "Fewest tail points an xmin candidate may leave", DefaultValueFactory = _ => 50 };
         var seed = new Option<ulong>("--seed") { Description = "Seed of every random draw", DefaultValueFactory = _ => 1UL };
-        var renyi = new Option<double>("--renyi-order") { Description = "Order of the Rényi entropy behind the efficiency figure",
-            DefaultValueFactory = _ => 2.5 };
+        var renyi = new Option<double>("--renyi-order")
+        {
+            Description = "Order of the Rényi entropy behind the efficiency figure",
+            DefaultValueFactory = _ => 2.5
+        };
         var level = new Option<double>("--level") { Description = "Family-wise error rate of the pair tests (Holm)", DefaultValueFactory = _ => 0.05 };
         var skipBad = new Option<bool>("--skip-bad") { Description = "Skip and count records whose binned key is not a number instead of failing" };
         var output = new Option<string?>("--out", "-o") { Description = "Output folder for tables, plots and report.html (created if missing)" };

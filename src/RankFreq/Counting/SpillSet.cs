@@ -43,7 +43,8 @@ internal sealed class SpillSet(string? root) : IDisposable
         catch (IOException e)
         {
             throw new CountingException($"{path}: cannot write a spill run ({e.Message}); free disk space or raise the memory "
-                + "budget", e) { Setting = nameof(CountSettings.MemoryBytes) };
+                + "budget", e)
+            { Setting = nameof(CountSettings.MemoryBytes) };
         }
         lock (_gate) Phase1.Add(path);
         table.Clear();

@@ -92,7 +92,7 @@ public static class TailFitter
         double zs = 1 / (pl.Alpha - 1);
         double zsSe = pl.AlphaSe / ((pl.Alpha - 1) * (pl.Alpha - 1));
         return new TailFitResult(pl, nTypes, aSd, aLo, aHi, xLo, xHi, nSd, gofP, options.Reps, ciDone, zs, zsSe, lsq, options.Seed, options, alts, sw.Elapsed.TotalSeconds)
-            { AlphaReplicates = alphaReps };
+        { AlphaReplicates = alphaReps };
     }
 
     private static double Sd(double[] x)

@@ -44,8 +44,11 @@ public static class ContrastJob
         IProgress<ContrastProgress>? progress = null, CancellationToken ct = default)
     {
         var s = settings.Key is null
-            ? settings with { Key = GroupKey.FromTable(settings.GroupsFile ?? throw new ArgumentException("a group key or a groups file is needed",
-                nameof(settings))) }
+            ? settings with
+            {
+                Key = GroupKey.FromTable(settings.GroupsFile ?? throw new ArgumentException("a group key or a groups file is needed",
+                nameof(settings)))
+            }
             : settings;
         var key = s.Key!;
         // a folder input never reads this run's own output folder
@@ -134,7 +137,7 @@ public static class ContrastJob
         string tmp = Path.Combine(parent, $".{Path.GetFileName(Path.TrimEndingDirectorySeparator(full))}.{Guid.NewGuid():N}.tmp");
         try { Directory.CreateDirectory(tmp); }
         catch (Exception e) when (e is IOException or UnauthorizedAccessException)
-            { throw new StorageException($"{dir}: cannot create the output folder ({e.Message})", e); }
+        { throw new StorageException($"{dir}: cannot create the output folder ({e.Message})", e); }
         try
         {
             var meta = CountTableMetadata.From(counted.Summary, s.RedactBelow);

@@ -64,8 +64,12 @@ public static class MergeJob
                     + $"{spectrum.TokenCount}; a table may be damaged");
             var meta = first! with
             {
-                Tokens = tokens, Types = spectrum.TypeCount, Inputs = allInputs, ToolVersion = CountTableMetadata.CurrentVersion,
-                CreatedUtc = DateTime.UtcNow, RedactedBelow = 0,
+                Tokens = tokens,
+                Types = spectrum.TypeCount,
+                Inputs = allInputs,
+                ToolVersion = CountTableMetadata.CurrentVersion,
+                CreatedUtc = DateTime.UtcNow,
+                RedactedBelow = 0,
             };
             await CountTableFile.WriteAsync(output, rows, ids, meta, ct);
         }

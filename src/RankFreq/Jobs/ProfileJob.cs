@@ -51,9 +51,15 @@ public static class ProfileJob
             foreach (var kv in part) summary[kv.Key] = kv.Value;
         summary["settings"] = new Dictionary<string, object?>
         {
-            ["tokenizer"] = s.Count.Tokenizer, ["format"] = (s.Count.Source ?? new()).Format.ToString().ToLowerInvariant(),
-            ["text_field"] = (s.Count.Source ?? new()).TextField, ["min_tail"] = s.Fit.MinTail, ["xmin"] = s.Fit.Xmin > 0 ? s.Fit.Xmin : null,
-            ["reps"] = s.Fit.Reps, ["ci_reps"] = s.Fit.CiReps, ["threads"] = s.Fit.EffectiveThreads, ["redact_below"] = s.RedactBelow,
+            ["tokenizer"] = s.Count.Tokenizer,
+            ["format"] = (s.Count.Source ?? new()).Format.ToString().ToLowerInvariant(),
+            ["text_field"] = (s.Count.Source ?? new()).TextField,
+            ["min_tail"] = s.Fit.MinTail,
+            ["xmin"] = s.Fit.Xmin > 0 ? s.Fit.Xmin : null,
+            ["reps"] = s.Fit.Reps,
+            ["ci_reps"] = s.Fit.CiReps,
+            ["threads"] = s.Fit.EffectiveThreads,
+            ["redact_below"] = s.RedactBelow,
         };
         summary["inputs"] = sum.Inputs.Select(i => new Dictionary<string, object> { ["path"] = i.Path, ["bytes"] = i.Bytes }).ToList();
         summary["version"] = CountTableMetadata.CurrentVersion;

@@ -43,12 +43,20 @@ public static class ContrastSummary
             ["cautions"] = cautions.ToList(),
             ["figures"] = ContrastFigures.All.Select(f => new Dictionary<string, object?>
             {
-                ["name"] = f.Name, ["description"] = f.Description, ["size_sensitive"] = f.SizeSensitive,
+                ["name"] = f.Name,
+                ["description"] = f.Description,
+                ["size_sensitive"] = f.SizeSensitive,
             }).ToList(),
             ["settings"] = new Dictionary<string, object?>
             {
-                ["reps"] = o.Reps, ["boot_reps"] = o.BootReps, ["thin_reps"] = o.ThinReps, ["matched"] = o.Matched,
-                ["min_tail"] = o.MinTail, ["renyi_order"] = o.RenyiOrder, ["level"] = o.Level, ["seed"] = o.Seed,
+                ["reps"] = o.Reps,
+                ["boot_reps"] = o.BootReps,
+                ["thin_reps"] = o.ThinReps,
+                ["matched"] = o.Matched,
+                ["min_tail"] = o.MinTail,
+                ["renyi_order"] = o.RenyiOrder,
+                ["level"] = o.Level,
+                ["seed"] = o.Seed,
                 ["threads"] = o.EffectiveThreads,
             },
             ["seconds_counting"] = Math.Round(count.Seconds, 3),

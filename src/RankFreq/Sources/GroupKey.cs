@@ -81,7 +81,7 @@ public sealed record GroupKey(GroupKind Kind, string Name, double BinWidth, IRea
         string[] lines;
         try { lines = System.IO.File.ReadAllLines(file); }
         catch (Exception e) when (e is IOException or UnauthorizedAccessException)
-            { throw new SourceException($"{file}: cannot read the groups file ({e.Message})", e); }
+        { throw new SourceException($"{file}: cannot read the groups file ({e.Message})", e); }
         var map = new Dictionary<string, string>(StringComparer.Ordinal);
         for (int i = 0; i < lines.Length; i++)
         {

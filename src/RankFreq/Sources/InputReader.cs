@@ -231,7 +231,8 @@ public static class InputReader
             long need = (long)_lineLen + part.Length;
             if (need > options.MaxRecordBytes)
                 throw new SourceException($"{path}:{FileLine(_lineNo + 1)}: record longer than the limit of "
-                    + $"{options.MaxRecordBytes:N0} bytes") { Setting = nameof(SourceOptions.MaxRecordBytes) };
+                    + $"{options.MaxRecordBytes:N0} bytes")
+                { Setting = nameof(SourceOptions.MaxRecordBytes) };
             if (_line.Length < need) Array.Resize(ref _line, (int)Math.Min(Math.Max(need, _line.Length * 2L), Array.MaxLength));
             part.CopyTo(_line.AsSpan(_lineLen));
             _lineLen += part.Length;

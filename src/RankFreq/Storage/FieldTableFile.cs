@@ -13,7 +13,8 @@ public static class FieldTableFile
 {
     private static ParquetOptions Options => new()
     {
-        CompressionMethod = CompressionMethod.Zstd, CompressionLevel = System.IO.Compression.CompressionLevel.Optimal,
+        CompressionMethod = CompressionMethod.Zstd,
+        CompressionLevel = System.IO.Compression.CompressionLevel.Optimal,
     };
 
     /// <summary>Writes one row per item of <paramref name="rows"/>, atomically, with <c>rankfreq.table</c> =
@@ -32,7 +33,8 @@ public static class FieldTableFile
             await using var w = await ParquetWriter.CreateAsync(new ParquetSchema(columns), stream, Options, cancellationToken: ct);
             w.CustomMetadata = new Dictionary<string, string>
             {
-                ["rankfreq.table"] = table, ["rankfreq.version"] = CountTableMetadata.CurrentVersion,
+                ["rankfreq.table"] = table,
+                ["rankfreq.version"] = CountTableMetadata.CurrentVersion,
             };
             using var rg = w.CreateRowGroup();
             for (int c = 0; c < fields.Count; c++)

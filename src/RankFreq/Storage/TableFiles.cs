@@ -10,7 +10,8 @@ public static class TableFiles
 {
     private static ParquetOptions Options => new()
     {
-        CompressionMethod = CompressionMethod.Zstd, CompressionLevel = System.IO.Compression.CompressionLevel.Optimal,
+        CompressionMethod = CompressionMethod.Zstd,
+        CompressionLevel = System.IO.Compression.CompressionLevel.Optimal,
     };
 
     /// <summary>Columns frequency (int64) and types (int64): how many types occur exactly that often.</summary>
@@ -38,8 +39,11 @@ public static class TableFiles
             await using var w = await ParquetWriter.CreateAsync(new ParquetSchema(n, o, e, b, h), stream, Options, cancellationToken: ct);
             w.CustomMetadata = new Dictionary<string, string>
             {
-                ["rankfreq.table"] = "growth", ["rankfreq.heaps_k"] = g.HeapsK.ToString("R"), ["rankfreq.heaps_beta"] = g.HeapsBeta.ToString("R"),
-                ["rankfreq.heaps_method"] = g.HeapsMethod, ["rankfreq.version"] = CountTableMetadata.CurrentVersion,
+                ["rankfreq.table"] = "growth",
+                ["rankfreq.heaps_k"] = g.HeapsK.ToString("R"),
+                ["rankfreq.heaps_beta"] = g.HeapsBeta.ToString("R"),
+                ["rankfreq.heaps_method"] = g.HeapsMethod,
+                ["rankfreq.version"] = CountTableMetadata.CurrentVersion,
             };
             using var rg = w.CreateRowGroup();
             await rg.WriteAsync<long>(n, g.Tokens);

@@ -14,8 +14,15 @@ public class JsonTextTests
         var doc = new Dictionary<string, object?>
         {
             ["s"] = "quote \" backslash \\ é 中 \n",
-            ["i"] = 42, ["l"] = 1L << 40, ["u"] = ulong.MaxValue, ["d"] = 0.1, ["neg"] = -2.5e-300,
-            ["nan"] = double.NaN, ["inf"] = double.PositiveInfinity, ["none"] = null, ["t"] = true,
+            ["i"] = 42,
+            ["l"] = 1L << 40,
+            ["u"] = ulong.MaxValue,
+            ["d"] = 0.1,
+            ["neg"] = -2.5e-300,
+            ["nan"] = double.NaN,
+            ["inf"] = double.PositiveInfinity,
+            ["none"] = null,
+            ["t"] = true,
             ["list"] = new List<object?> { 1, "two", null, new Dictionary<string, object?> { ["x"] = 3.0 } },
             ["arr"] = new[] { "a", "b" },
         };

@@ -91,7 +91,8 @@ public class ProfileTests
         Assert.DoesNotContain("http://", html.Replace("http://www.w3.org", ""));
         var psi = new ProcessStartInfo(chromium, ["--headless", "--no-sandbox", "--disable-gpu", "--no-first-run", "--disable-background-networking",
             "--disable-component-update", "--disable-sync", $"--user-data-dir={d["profile"]}", "--enable-logging=stderr", "--v=0",
-            "--window-size=1200,1600", $"--screenshot={shot}", "file://" + report]) { RedirectStandardError = true, RedirectStandardOutput = true };
+            "--window-size=1200,1600", $"--screenshot={shot}", "file://" + report])
+        { RedirectStandardError = true, RedirectStandardOutput = true };
         using var p = Process.Start(psi)!;
         var err = p.StandardError.ReadToEndAsync();
         _ = p.StandardOutput.ReadToEndAsync();

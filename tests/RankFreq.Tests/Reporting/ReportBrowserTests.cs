@@ -76,7 +76,8 @@ public class ReportBrowserTests
 
         var psi = new ProcessStartInfo(BrowserTools.Node!, [Path.Combine(Repo.Root, "tests", "js", "report-check.mjs"), report, "--widths", "1280,390"])
         {
-            RedirectStandardOutput = true, RedirectStandardError = true,
+            RedirectStandardOutput = true,
+            RedirectStandardError = true,
         };
         psi.Environment["RANKFREQ_NODE_MODULES"] = BrowserTools.NodeModules;
         psi.Environment["RANKFREQ_CHROMIUM"] = BrowserTools.Chromium;

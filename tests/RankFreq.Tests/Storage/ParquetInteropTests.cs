@@ -48,7 +48,7 @@ public class ParquetInteropTests
         string path = d["flat.parquet"];
         using (var fs = File.Create(path))
         using (var w = new FlatParquetWriter(fs, [new("token", FlatType.String, true), new("token_id", FlatType.Int32), new("count", FlatType.Int64)])
-               { Metadata = new Dictionary<string, string> { ["k"] = "välue", ["rankfreq.x"] = new string('z', 300) } })
+        { Metadata = new Dictionary<string, string> { ["k"] = "välue", ["rankfreq.x"] = new string('z', 300) } })
         {
             int row = 0;
             foreach (int n in groups)

