@@ -62,6 +62,7 @@ public static class CliApp
         root.Subcommands.Add(MergeVerb.Build(stdout, stderr));
         root.Subcommands.Add(FitVerb.Build(stdout, stderr));
         root.Subcommands.Add(ProfileVerb.Build(stdout, stderr));
+        root.Subcommands.Add(ShiftVerb.Build(stdout, stderr));
         var tok = new Command("tokenizers", "List the tokenizer specs available.");
         tok.SetAction(_ =>
         {
