@@ -16,7 +16,7 @@ public static class ShiftFindings
         if (double.IsFinite(change))
         {
             string how = Math.Abs(change) < 0.005 ? "about as many tokens as"
-                : string.Create(ic, $"{Math.Abs(change) * 100:F0}% {(change < 0 ? "fewer" : "more")} tokens than");
+                : string.Create(ic, $"{Math.Abs(change) * 100:0.#}% {(change < 0 ? "fewer" : "more")} tokens than");
             lines.Add($"{c.Spec} needs {how} {b.Spec} for this text "
                 + string.Create(ic, $"({c.Tokens:N0} against {b.Tokens:N0}; {r.Fertility:F3} per {Unit(b)})."));
         }
@@ -32,7 +32,7 @@ public static class ShiftFindings
                 + $"({r.AlphaDiff:+0.000;-0.000}")
                 + (double.IsFinite(r.AlphaDiffLo)
                     ? string.Create(ic, $", 95% interval {r.AlphaDiffLo:+0.000;-0.000} to {r.AlphaDiffHi:+0.000;-0.000}); ")
-                      + (clear ? "the interval excludes no change." : "the interval includes no change.")
+                      + (clear ? "the interval excludes zero, so the tail did change." : "the interval includes zero, so no clear change.")
                     : "; no bootstrap interval)."));
         }
         else

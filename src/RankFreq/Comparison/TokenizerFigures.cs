@@ -1,3 +1,4 @@
+using RankFreq.Counting;
 using RankFreq.Fitting;
 
 namespace RankFreq.Comparison;
@@ -36,6 +37,9 @@ public sealed record TokenizerFigures(
 
     /// <summary>Share of vocabulary entries seen; null without a vocabulary.</summary>
     public double? Utilisation => VocabularySize > 0 && SeenEntries is { } s ? s / (double)VocabularySize : null;
+
+    /// <summary>The frequency spectrum the figures were computed from (for plots).</summary>
+    public FrequencySpectrum? Spectrum { get; init; }
 
     /// <summary>What the Rényi denominator |V| is.</summary>
     public string RenyiBase => VocabularySize > 0 ? "vocabulary size" : "types seen";

@@ -1,4 +1,5 @@
 using RankFreq.Comparison;
+using RankFreq.Reporting;
 using RankFreq.Storage;
 using RankFreq.Tokenization;
 
@@ -21,7 +22,8 @@ public sealed record ShiftJobResult(ShiftResult Shift, IReadOnlyList<string> Fil
 public static class ShiftJob
 {
     /// <summary>Counts, compares and, with an output folder, writes shift.parquet, unseen.parquet (the candidate's
-    /// vocabulary entries never seen) and baseline-unseen.parquet (the baseline's, when it has a vocabulary).</summary>
+    /// vocabulary entries never seen) and baseline-unseen.parquet (the baseline's, when it has a vocabulary) and the overlay plots shift-rank-frequency and
+    /// shift-ccdf (SVG, and PNG when a font was found).</summary>
     public static async Task<ShiftJobResult> RunAsync(IReadOnlyList<string> inputs, ShiftSettings s, CancellationToken ct = default)
     {
         var source = s.Count.Source ?? new();
@@ -62,6 +64,16 @@ public static class ShiftJob
             {
                 path = Path.Combine(dir, "baseline-unseen.parquet");
                 await FieldTableFile.WriteAsync(path, "unseen", ShiftFields.Unseen, shift.BaselineUnseen, ct);
+                files.Add(path);
+            }
+            foreach (var plot in new[] { Plots.ShiftRankFrequency(shift), Plots.ShiftCcdf(shift) }.OfType<RenderedPlot>())
+            {
+                path = Path.Combine(dir, plot.Name + ".svg");
+                await AtomicFile.WriteTextAsync(path, plot.Svg);
+                files.Add(path);
+                if (plot.Png is null) continue;
+                path = Path.Combine(dir, plot.Name + ".png");
+                await AtomicFile.WriteBytesAsync(path, plot.Png);
                 files.Add(path);
             }
         }

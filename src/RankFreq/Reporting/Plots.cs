@@ -10,7 +10,7 @@ namespace RankFreq.Reporting;
 /// Log–log axes are drawn as log10 values with decade labels. PNG needs a font file: one is looked up in the
 /// fontconfig folders at start; without one, only SVG is written (its labels are text elements).
 /// </summary>
-public static class Plots
+public static partial class Plots
 {
     private static readonly Color Paper = Color.FromHex("#FBF8F1");
     private static readonly Color Ink = Color.FromHex("#23395B");
@@ -125,18 +125,8 @@ public static class Plots
     {
         var p = NewPlot("Rank and frequency", "rank (log scale)", "frequency (log scale)");
         LogAxes(p);
-        // each distinct frequency occupies a block of ranks: plot both ends of every block
-        var xs = new List<double>(); var ys = new List<double>();
-        long rank = 1;
-        for (int i = s.Values.Length - 1; i >= 0; i--)
-        {
-            double y = Math.Log10(s.Values[i]);
-            xs.Add(Math.Log10(rank)); ys.Add(y);
-            long last = rank + s.Types[i] - 1;
-            if (last > rank) { xs.Add(Math.Log10(last)); ys.Add(y); }
-            rank = last + 1;
-        }
-        var obs = p.Add.ScatterPoints(xs.ToArray(), ys.ToArray(), Ink);
+        var (xs, ys) = RankPoints(s);
+        var obs = p.Add.ScatterPoints(xs, ys, Ink);
         obs.MarkerSize = 4;
         obs.LegendText = "observed types";
         if (fit.PowerLaw.Status == FitStatus.Ok)
@@ -158,14 +148,8 @@ public static class Plots
     {
         var p = NewPlot("Share of types at least this frequent", "frequency x (log scale)", "P(X ≥ x) (log scale)");
         LogAxes(p);
-        double n = s.TypeCount, above = n;
-        var xs = new double[s.Values.Length]; var ys = new double[s.Values.Length];
-        for (int i = 0; i < s.Values.Length; i++)
-        {
-            xs[i] = Math.Log10(s.Values[i]);
-            ys[i] = Math.Log10(above / n);
-            above -= s.Types[i];
-        }
+        double n = s.TypeCount;
+        var (xs, ys) = CcdfPoints(s);
         var obs = p.Add.ScatterPoints(xs, ys, Ink);
         obs.MarkerSize = 4;
         obs.LegendText = "observed";

@@ -31,7 +31,9 @@ public class ShiftCliTests
             / (double)root.GetProperty("baseline").GetProperty("tokens").GetInt64(), fertility, 12);
         Assert.True(root.TryGetProperty("alpha_diff", out _));
 
-        Assert.True(File.Exists(Path.Combine(d["out"], "shift.parquet")));
+        foreach (var f in new[] { "shift.parquet", "shift-rank-frequency.svg", "shift-ccdf.svg" })
+            Assert.True(File.Exists(Path.Combine(d["out"], f)), f);
+        Assert.Contains("o200k_base", File.ReadAllText(Path.Combine(d["out"], "shift-ccdf.svg")));
         await using var r = await Parquet.ParquetReader.CreateAsync(Path.Combine(d["out"], "unseen.parquet"));
         long rows = 0;
         for (int g = 0; g < r.RowGroupCount; g++) { using var rg = r.OpenRowGroupReader(g); rows += rg.RowCount; }
