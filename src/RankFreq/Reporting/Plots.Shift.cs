@@ -40,7 +40,6 @@ public static partial class Plots
             if (pl.Status == Fitting.FitStatus.Ok)
             {
                 var v = p.Add.VerticalLine(Math.Log10(pl.Xmin), 1.5f, color);
-                v.LinePattern = LinePattern.Dashed;
                 v.LegendText = $"{f.Spec} xmin = {pl.Xmin:N0}";
             }
         }
