@@ -24,7 +24,8 @@ public static class ShiftJob
     /// <summary>Counts, compares and, with an output folder, writes shift.parquet, unseen.parquet (the candidate's
     /// vocabulary entries never seen) and baseline-unseen.parquet (the baseline's, when it has a vocabulary) and the overlay plots shift-rank-frequency and
     /// shift-ccdf (SVG, and PNG when a font was found).</summary>
-    public static async Task<ShiftJobResult> RunAsync(IReadOnlyList<string> inputs, ShiftSettings s, CancellationToken ct = default)
+    public static async Task<ShiftJobResult> RunAsync(IReadOnlyList<string> inputs, ShiftSettings s,
+        CancellationToken ct = default)
     {
         var source = s.Count.Source ?? new();
         if (s.OutputDirectory is not null) source = source.Skipping(s.OutputDirectory);
