@@ -22,7 +22,8 @@ public sealed record ShiftJobResult(ShiftResult Shift, IReadOnlyList<string> Fil
 public static class ShiftJob
 {
     /// <summary>Counts, compares and, with an output folder, writes shift.parquet, unseen.parquet (the candidate's
-    /// vocabulary entries never seen) and baseline-unseen.parquet (the baseline's, when it has a vocabulary) and the overlay plots shift-rank-frequency and
+    /// vocabulary entries never seen) and baseline-unseen.parquet (the baseline's, when it has a vocabulary)
+    /// and the overlay plots shift-rank-frequency and
     /// shift-ccdf (SVG, and PNG when a font was found).</summary>
     public static async Task<ShiftJobResult> RunAsync(IReadOnlyList<string> inputs, ShiftSettings s,
         CancellationToken ct = default)
