@@ -65,6 +65,7 @@ public static class CliApp
         root.Subcommands.Add(ForecastVerb.Build(stdout, stderr));
         root.Subcommands.Add(ProfileVerb.Build(stdout, stderr));
         root.Subcommands.Add(ContrastVerb.Build(stdout, stderr));
+        root.Subcommands.Add(ShiftVerb.Build(stdout, stderr));
         var tok = new Command("tokenizers", "List the tokenizer specs available.");
         tok.SetAction(_ =>
         {

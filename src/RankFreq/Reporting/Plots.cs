@@ -125,7 +125,6 @@ public static partial class Plots
     {
         var p = NewPlot("Rank and frequency", "rank (log scale)", "frequency (log scale)");
         LogAxes(p);
-        // each distinct frequency occupies a block of ranks: plot both ends of every block
         var (xs, ys) = RankPoints(s);
         var obs = p.Add.ScatterPoints(xs, ys, Ink);
         obs.MarkerSize = 4;
