@@ -28,8 +28,8 @@ public static partial class Plots
         var home = Environment.GetFolderPath(Environment.SpecialFolder.UserProfile);
         var dirs = new[]
         {
-            "/usr/share/fonts", "/usr/local/share/fonts", Path.Combine(home, ".fonts"), Path.Combine(home, ".local/share/fonts"),
-            "/Library/Fonts", @"C:\Windows\Fonts",
+            "/usr/share/fonts", "/usr/local/share/fonts",
+            Path.Combine(home, ".fonts"), Path.Combine(home, ".local/share/fonts"), "/Library/Fonts", @"C:\Windows\Fonts",
         };
         var files = dirs.Where(Directory.Exists)
             .SelectMany(d =>

@@ -153,8 +153,9 @@ public static class InputReader
                         {
                             if (!options.SkipBadGroupValues)
                             {
-                                throw new SourceException($"{f.Path}: row {row}: column '{groupKey!.Name}' holds a value "
-                                    + $"that is not a number, so it cannot be binned ({groupKey.Spec}); fix it or pass --skip-bad");
+                                throw new SourceException($"{f.Path}: row {row}: column '{groupKey!.Name}' "
+                                    + "holds a value that is not a number, "
+                                    + $"so it cannot be binned ({groupKey.Spec}); fix it or pass --skip-bad");
                             }
                             stats.BadGroupValues++;
                             continue;
