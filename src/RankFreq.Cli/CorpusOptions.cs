@@ -7,10 +7,22 @@ namespace RankFreq.Cli;
 /// <summary>Options shared by the verbs that read a corpus.</summary>
 internal sealed class CorpusOptions
 {
-    public readonly Argument<string[]> Inputs = new("inputs") { Description = "Files, folders (recursive) or - for standard input", Arity = ArgumentArity.OneOrMore };
-    public readonly Option<string> Tokenizer = new("--tokenizer", "-t") { Description = "Tokenizer spec (see 'rankfreq tokenizers')", DefaultValueFactory = _ => "words" };
+    public readonly Argument<string[]> Inputs = new("inputs")
+    {
+        Description = "Files, folders (recursive) or - for standard input",
+        Arity = ArgumentArity.OneOrMore,
+    };
+    public readonly Option<string> Tokenizer = new("--tokenizer", "-t")
+    {
+        Description = "Tokenizer spec (see 'rankfreq tokenizers')",
+        DefaultValueFactory = _ => "words",
+    };
     public readonly Option<string> Format = new("--format") { Description = "Input format: auto, text, jsonl, parquet", DefaultValueFactory = _ => "auto" };
-    public readonly Option<string> TextField = new("--text-field") { Description = "JSON Lines field with the text (dots for nested objects)", DefaultValueFactory = _ => "text" };
+    public readonly Option<string> TextField = new("--text-field")
+    {
+        Description = "JSON Lines field with the text (dots for nested objects)",
+        DefaultValueFactory = _ => "text",
+    };
     public readonly Option<string> TextColumn = new("--text-column") { Description = "Parquet column with the text", DefaultValueFactory = _ => "text" };
     public readonly Option<string[]> Include = new("--include")
     {
@@ -21,7 +33,10 @@ internal sealed class CorpusOptions
     public readonly Option<string> MaxRecord = new("--max-record") { Description = "Longest JSON Lines record accepted", DefaultValueFactory = _ => "64M" };
     public readonly Option<bool> Strict = new("--strict") { Description = "Make a malformed JSON Lines record an error instead of skipping it" };
     public readonly Option<int> Threads = WholeNumber.Option<int>("--threads", 0, "Worker threads (0 or left out: all cores)");
-    public readonly Option<string?> Memory = new("--memory") { Description = "Memory for count tables before spilling to disk (default: a quarter of RAM), e.g. 2G" };
+    public readonly Option<string?> Memory = new("--memory")
+    {
+        Description = "Memory for count tables before spilling to disk (default: a quarter of RAM), e.g. 2G",
+    };
     public readonly Option<string?> Shard = new("--shard") { Description = "Count only part K of N of the sorted input files, as K/N (shards split by file)" };
     public readonly Option<long> RedactBelow = WholeNumber.Option<long>("--redact-below", 0,
         "Write token strings of types with count below K as null (counts kept)");
@@ -32,7 +47,12 @@ internal sealed class CorpusOptions
     public void AddTo(Command c)
     {
         c.Arguments.Add(Inputs);
-        foreach (var o in new Option[] { Tokenizer, Format, TextField, TextColumn, Include, Exclude, MaxRecord, Strict, Threads, Memory, Shard, RedactBelow, TempDir, Quiet, Json })
+        var options = new Option[]
+        {
+            Tokenizer, Format, TextField, TextColumn, Include, Exclude, MaxRecord, Strict, Threads, Memory, Shard,
+            RedactBelow, TempDir, Quiet, Json,
+        };
+        foreach (var o in options)
             c.Options.Add(o);
     }
 
@@ -58,6 +78,7 @@ internal sealed class CorpusOptions
         if (pr.GetValue(RedactBelow) < 0) throw new UsageException("--redact-below must be positive");
         var source = new SourceOptions(fmt, pr.GetValue(TextField) ?? "text", pr.GetValue(TextColumn) ?? "text",
             CliApp.ParseSize(pr.GetValue(MaxRecord), "--max-record"), pr.GetValue(Strict), pr.GetValue(Include) ?? [], pr.GetValue(Exclude) ?? []);
-        return new CountSettings(pr.GetValue(Tokenizer) ?? "words", source, threads, CliApp.ParseSize(pr.GetValue(Memory), "--memory"), k, n, pr.GetValue(TempDir));
+        return new CountSettings(pr.GetValue(Tokenizer) ?? "words", source, threads,
+            CliApp.ParseSize(pr.GetValue(Memory), "--memory"), k, n, pr.GetValue(TempDir));
     }
 }

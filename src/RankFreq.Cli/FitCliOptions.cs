@@ -43,7 +43,9 @@ internal sealed class FitCliOptions(int defaultReps)
             _ => alt.Split(',', StringSplitOptions.RemoveEmptyEntries | StringSplitOptions.TrimEntries),
         };
         alts = alts.Select(a => Fitting.Alternatives.Canonical(a)
-            ?? throw new UsageException($"--alternatives: unknown family '{a}' (choose from {string.Join(", ", Fitting.Alternatives.Names)})")).Distinct().ToArray();
+                ?? throw new UsageException($"--alternatives: unknown family '{a}' "
+                    + $"(choose from {string.Join(", ", Fitting.Alternatives.Names)})"))
+            .Distinct().ToArray();
         return new FitOptions(minTail, xmin, reps, ci, pr.GetValue(Seed), threads, alts);
     }
 }

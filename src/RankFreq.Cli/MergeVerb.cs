@@ -19,11 +19,19 @@ internal static class MergeVerb
         {
             try
             {
-                var s = await MergeJob.RunAsync(pr.GetValue(tables)!, pr.GetValue(output)!, CliApp.ParseSize(pr.GetValue(memory), "--memory"), pr.GetValue(temp), ct);
+                var s = await MergeJob.RunAsync(pr.GetValue(tables)!, pr.GetValue(output)!,
+                    CliApp.ParseSize(pr.GetValue(memory), "--memory"), pr.GetValue(temp), ct);
                 foreach (var w in s.Warnings) stderr.WriteLine($"rankfreq: warning: {w}");
                 OutputName.WarnIfNotParquet(stderr, pr.GetValue(output), "the merged table");
                 if (pr.GetValue(json))
-                    stdout.WriteLine(JsonText.Write(new Dictionary<string, object> { ["tables"] = s.Tables, ["tokens"] = s.Tokens, ["types"] = s.Types, ["spilled_runs"] = s.SpilledRuns, ["seconds"] = Math.Round(s.Seconds, 3) }));
+                    stdout.WriteLine(JsonText.Write(new Dictionary<string, object>
+                    {
+                        ["tables"] = s.Tables,
+                        ["tokens"] = s.Tokens,
+                        ["types"] = s.Types,
+                        ["spilled_runs"] = s.SpilledRuns,
+                        ["seconds"] = Math.Round(s.Seconds, 3),
+                    }));
                 else if (!pr.GetValue(quiet))
                     stdout.WriteLine($"  merged {Human.Count(s.Tables, "table")}: {s.Tokens:N0} tokens, {s.Types:N0} types -> {pr.GetValue(output)}");
                 return CliApp.Ok;

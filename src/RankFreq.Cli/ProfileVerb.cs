@@ -39,8 +39,10 @@ internal static class ProfileVerb
                 FitSummary.Write(stdout, r.Fit, "tail fit");
                 var l = r.Lexical;
                 stdout.WriteLine($"vocabulary");
-                stdout.WriteLine($"  hapax {l.Hapax:N0} ({100 * l.HapaxShare:F1}% of types), dis {l.Dis:N0}, unseen mass N1/N {l.GoodTuringUnseen:F4}, Chao1 {l.Chao1:N0}");
-                stdout.WriteLine($"  Heaps β {r.Growth.HeapsBeta:F3} (K {r.Growth.HeapsK:G3}), entropy {l.EntropyMillerMadowBits:F3} bits/token, Yule's K {l.YuleK:F1}");
+                stdout.WriteLine($"  hapax {l.Hapax:N0} ({100 * l.HapaxShare:F1}% of types), dis {l.Dis:N0}, "
+                    + $"unseen mass N1/N {l.GoodTuringUnseen:F4}, Chao1 {l.Chao1:N0}");
+                stdout.WriteLine($"  Heaps β {r.Growth.HeapsBeta:F3} (K {r.Growth.HeapsK:G3}), "
+                    + $"entropy {l.EntropyMillerMadowBits:F3} bits/token, Yule's K {l.YuleK:F1}");
                 stdout.WriteLine($"report: {r.ReportPath}");
                 return CliApp.Ok;
             }

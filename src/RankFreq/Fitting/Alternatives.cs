@@ -56,7 +56,8 @@ public static class Alternatives
             var (pars, st, msg) = Fit(name, tv, tm, xmin, pl.Alpha);
             if (pars is null)
             {
-                list.Add(new AlternativeComparison(name, new Dictionary<string, double>(), double.NaN, double.NaN, double.NaN, double.NaN, "inconclusive", st, msg));
+                list.Add(new AlternativeComparison(name, new Dictionary<string, double>(),
+                    double.NaN, double.NaN, double.NaN, double.NaN, "inconclusive", st, msg));
                 continue;
             }
             var logPmf = LogPmf(name, pars, xmin);
@@ -101,13 +102,14 @@ public static class Alternatives
         _ => throw new ArgumentException($"unknown family {name}", nameof(name)),
     };
 
-    private static (Dictionary<string, double>? Pars, FitStatus Status, string Message) Fit(string name, long[] x, long[] m, long xmin, double alpha) => name switch
-    {
-        "geometric" => Geometric(x, m, xmin),
-        "discrete_lognormal" => Lognormal(x, m, xmin),
-        "discrete_weibull" => Weibull(x, m, xmin),
-        _ => Cutoff(x, m, xmin, alpha),
-    };
+    private static (Dictionary<string, double>? Pars, FitStatus Status, string Message) Fit(
+        string name, long[] x, long[] m, long xmin, double alpha) => name switch
+        {
+            "geometric" => Geometric(x, m, xmin),
+            "discrete_lognormal" => Lognormal(x, m, xmin),
+            "discrete_weibull" => Weibull(x, m, xmin),
+            _ => Cutoff(x, m, xmin, alpha),
+        };
 
     private static double LogLik(Func<long, double> logPmf, long[] x, long[] m)
     {

@@ -91,7 +91,8 @@ public static class TailFitter
         }
         double zs = 1 / (pl.Alpha - 1);
         double zsSe = pl.AlphaSe / ((pl.Alpha - 1) * (pl.Alpha - 1));
-        return new TailFitResult(pl, nTypes, aSd, aLo, aHi, xLo, xHi, nSd, gofP, options.Reps, ciDone, zs, zsSe, lsq, options.Seed, options, alts, sw.Elapsed.TotalSeconds)
+        return new TailFitResult(pl, nTypes, aSd, aLo, aHi, xLo, xHi, nSd, gofP, options.Reps, ciDone, zs, zsSe, lsq,
+            options.Seed, options, alts, sw.Elapsed.TotalSeconds)
         { AlphaReplicates = alphaReps };
     }
 

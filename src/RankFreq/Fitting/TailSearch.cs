@@ -77,7 +77,11 @@ public sealed class TailSearch
         if (xmin <= 0) xmin = _v[i];
         long n = _nSuffix[i];
         double sumLn = _lnSuffix[i];
-        if (n == 0) return new PowerLawFit(double.NaN, double.NaN, double.NaN, xmin, 0, double.NaN, double.NaN, 0, FitStatus.TooFewPoints, "no types at or above xmin");
+        if (n == 0)
+        {
+            return new PowerLawFit(double.NaN, double.NaN, double.NaN, xmin, 0, double.NaN, double.NaN, 0,
+                FitStatus.TooFewPoints, "no types at or above xmin");
+        }
         double meanLn = sumLn / n;
         double approx = 1 + n / (sumLn - n * Math.Log(xmin - 0.5));
         if (i == _k - 1)

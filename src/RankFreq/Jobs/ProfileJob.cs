@@ -24,7 +24,10 @@ public static class ProfileJob
 
         string dir = s.OutputDirectory;
         try { Directory.CreateDirectory(dir); }
-        catch (Exception e) when (e is IOException or UnauthorizedAccessException) { throw new StorageException($"{dir}: cannot create the output folder ({e.Message})", e); }
+        catch (Exception e) when (e is IOException or UnauthorizedAccessException)
+        {
+            throw new StorageException($"{dir}: cannot create the output folder ({e.Message})", e);
+        }
 
         var sum = counted.Summary;
         var meta = CountTableMetadata.From(sum, s.RedactBelow);
@@ -40,7 +43,10 @@ public static class ProfileJob
         }.OfType<RenderedPlot>().ToArray();
         var plots = await PlotFiles.WriteAsync(dir, rendered);
         if (Plots.Font is null)
-            warnings.Add("no font file found (looked in the fontconfig folders), so PNG plots were skipped; install a font (Debian: fonts-dejavu-core) to get them. SVG plots and the report are complete.");
+        {
+            warnings.Add("no font file found (looked in the fontconfig folders), so PNG plots were skipped; "
+                + "install a font (Debian: fonts-dejavu-core) to get them. SVG plots and the report are complete.");
+        }
 
         var summary = new Dictionary<string, object?>();
         foreach (var part in new[]

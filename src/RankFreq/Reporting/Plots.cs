@@ -25,14 +25,24 @@ public static partial class Plots
 
     private static string? FindFont()
     {
-        var dirs = new[] { "/usr/share/fonts", "/usr/local/share/fonts", Path.Combine(Environment.GetFolderPath(Environment.SpecialFolder.UserProfile), ".fonts"),
-            Path.Combine(Environment.GetFolderPath(Environment.SpecialFolder.UserProfile), ".local/share/fonts"), "/Library/Fonts", @"C:\Windows\Fonts" };
+        var home = Environment.GetFolderPath(Environment.SpecialFolder.UserProfile);
+        var dirs = new[]
+        {
+            "/usr/share/fonts", "/usr/local/share/fonts",
+            Path.Combine(home, ".fonts"), Path.Combine(home, ".local/share/fonts"), "/Library/Fonts", @"C:\Windows\Fonts",
+        };
         var files = dirs.Where(Directory.Exists)
-            .SelectMany(d => { try { return Directory.EnumerateFiles(d, "*.ttf", SearchOption.AllDirectories); } catch (IOException) { return []; } catch (UnauthorizedAccessException) { return []; } })
+            .SelectMany(d =>
+            {
+                try { return Directory.EnumerateFiles(d, "*.ttf", SearchOption.AllDirectories); }
+                catch (IOException) { return []; }
+                catch (UnauthorizedAccessException) { return []; }
+            })
             .ToList();
         string? Pick(Func<string, bool> ok) => files.Where(f => ok(Path.GetFileNameWithoutExtension(f))).Order(StringComparer.Ordinal).FirstOrDefault();
         var font = Pick(n => n.Equals("DejaVuSans", StringComparison.OrdinalIgnoreCase))
-            ?? Pick(n => n.Contains("Sans", StringComparison.OrdinalIgnoreCase) && !n.Contains("Mono") && !n.Contains("Bold") && !n.Contains("Oblique") && !n.Contains("Italic"))
+            ?? Pick(n => n.Contains("Sans", StringComparison.OrdinalIgnoreCase)
+                && !n.Contains("Mono") && !n.Contains("Bold") && !n.Contains("Oblique") && !n.Contains("Italic"))
             ?? files.Order(StringComparer.Ordinal).FirstOrDefault();
         if (font is not null) Fonts.AddFontFile(FontName, font);
         return font;

@@ -16,7 +16,8 @@ public static partial class ReportHtml
     private static string H(string s) => WebUtility.HtmlEncode(s);
 
     /// <summary>Builds the report.</summary>
-    public static string Build(string title, CountSummary c, TailFitResult fit, LexicalSummary lex, GrowthAnalysis g, IReadOnlyList<RenderedPlot> plots, long redactBelow)
+    public static string Build(string title, CountSummary c, TailFitResult fit, LexicalSummary lex, GrowthAnalysis g,
+        IReadOnlyList<RenderedPlot> plots, long redactBelow)
     {
         var pl = fit.PowerLaw;
         bool fitted = pl.Status == FitStatus.Ok;
@@ -24,11 +25,14 @@ public static partial class ReportHtml
         sb.Append("<!DOCTYPE html><html lang=\"en\"><head><meta charset=\"utf-8\"><meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">");
         sb.Append($"<title>{H(title)} — RankFreq profile</title><style>{Css}</style></head><body>");
         sb.Append($"<header><div class=\"brand\">RankFreq profile</div><h1>{H(title)}</h1>");
-        sb.Append($"<p class=\"sub\">{N(c.Tokens)} tokens · {N(c.Types)} types · tokenizer <code>{H(c.TokenizerSpec)}</code> · {c.Inputs.Count} input file(s) · made {DateTime.UtcNow:yyyy-MM-dd HH:mm} UTC</p></header><main>");
+        sb.Append($"<p class=\"sub\">{N(c.Tokens)} tokens · {N(c.Types)} types · "
+            + $"tokenizer <code>{H(c.TokenizerSpec)}</code> · {c.Inputs.Count} input file(s) · "
+            + $"made {DateTime.UtcNow:yyyy-MM-dd HH:mm} UTC</p></header><main>");
 
         sb.Append("<section class=\"cards\">");
         Card(sb, "tail exponent α", F(pl.Alpha), fitted ? $"95% bootstrap interval {F(fit.AlphaLo)} – {F(fit.AlphaHi)}" : pl.Message);
-        Card(sb, "lower cut-off xmin", fitted ? N(pl.Xmin) : "–", fitted ? $"{N(pl.NTail)} types in the tail ({100.0 * pl.NTail / Math.Max(1, fit.NTypes):F1}%)" : "");
+        Card(sb, "lower cut-off xmin", fitted ? N(pl.Xmin) : "–",
+            fitted ? $"{N(pl.NTail)} types in the tail ({100.0 * pl.NTail / Math.Max(1, fit.NTypes):F1}%)" : "");
         Card(sb, "goodness of fit p", F(fit.GofP), GofNote(fit));
         Card(sb, "Zipf rank exponent s", F(fit.ZipfS), $"± {F(fit.ZipfSSe)}; log–log line slope {F(fit.LsqSlope)} (biased)");
         Card(sb, "Heaps β", F(g.HeapsBeta),
@@ -40,7 +44,8 @@ public static partial class ReportHtml
         sb.Append("<section><h2>What the tail says</h2><p>");
         if (fitted)
         {
-            sb.Append($"Above a frequency of {N(pl.Xmin)}, the {N(pl.NTail)} most frequent types were fitted with a discrete power law by maximum likelihood: ");
+            sb.Append($"Above a frequency of {N(pl.Xmin)}, the {N(pl.NTail)} most frequent types "
+                + "were fitted with a discrete power law by maximum likelihood: ");
             sb.Append($"α = {F(pl.Alpha)} (standard error {F(pl.AlphaSe)}; the 2009 closed-form approximation gives {F(pl.AlphaApprox)}). ");
             sb.Append($"In rank terms that is Zipf's s = 1/(α − 1) = {F(fit.ZipfS)}. ");
             if (fit.GofReps > 0 && double.IsFinite(fit.GofP))
@@ -78,15 +83,20 @@ public static partial class ReportHtml
         sb.Append("</ul></section>");
 
         sb.Append("<section><h2>Settings and inputs</h2><table><tbody>");
-        Row(sb, "seed", fit.Seed.ToString(CultureInfo.InvariantCulture)); Row(sb, "goodness-of-fit replicates", N(fit.GofReps)); Row(sb, "uncertainty replicates", N(fit.CiReps));
-        Row(sb, "minimum tail size", N(fit.Options.MinTail)); Row(sb, "xmin", fit.Options.Xmin > 0 ? $"fixed at {fit.Options.Xmin}" : "chosen by the KS criterion");
+        Row(sb, "seed", fit.Seed.ToString(CultureInfo.InvariantCulture));
+        Row(sb, "goodness-of-fit replicates", N(fit.GofReps));
+        Row(sb, "uncertainty replicates", N(fit.CiReps));
+        Row(sb, "minimum tail size", N(fit.Options.MinTail));
+        Row(sb, "xmin", fit.Options.Xmin > 0 ? $"fixed at {fit.Options.Xmin}" : "chosen by the KS criterion");
         Row(sb, "normalisation / case", $"{c.Normalization} / {c.CaseRule}");
         if (c.ReplacedBytes > 0) Row(sb, "invalid UTF-8 bytes replaced", N(c.ReplacedBytes));
         if (c.MalformedRecords > 0) Row(sb, "malformed records skipped", N(c.MalformedRecords));
         foreach (var i in c.Inputs.Take(50)) Row(sb, "input", $"{H(i.Path == "-" ? "standard input" : i.Path)} ({N(i.Bytes)} bytes)");
         if (c.Inputs.Count > 50) Row(sb, "input", $"… and {c.Inputs.Count - 50} more");
         sb.Append("</tbody></table></section>");
-        sb.Append("<footer>Method: discrete power-law maximum likelihood with the KS-chosen lower cut-off and bootstrap goodness of fit (Clauset, Shalizi &amp; Newman 2009); Vuong's test (1989).</footer></main></body></html>");
+        sb.Append("<footer>Method: discrete power-law maximum likelihood with the KS-chosen lower cut-off "
+            + "and bootstrap goodness of fit (Clauset, Shalizi &amp; Newman 2009); Vuong's test (1989).</footer>"
+            + "</main></body></html>");
         return sb.ToString();
     }
 
@@ -173,7 +183,8 @@ public static partial class ReportHtml
 
     private const string Css = """
         :root{--paper:#FBF8F1;--ink:#23395B;--ember:#D1495B;--moss:#5B8C5A;--rule:#E6DFD0;--text:#2B2B2B}
-        *{box-sizing:border-box}body{margin:0;background:var(--paper);color:var(--text);font:16px/1.55 "Iowan Old Style","Palatino Linotype",Palatino,Georgia,serif}
+        *{box-sizing:border-box}
+        body{margin:0;background:var(--paper);color:var(--text);font:16px/1.55 "Iowan Old Style","Palatino Linotype",Palatino,Georgia,serif}
         header{background:var(--ink);color:#F5F1E6;padding:28px 40px 22px}header h1{margin:4px 0 6px;font-size:30px;font-weight:600;overflow-wrap:anywhere}
         .brand{letter-spacing:.18em;text-transform:uppercase;font:600 12px/1 "DejaVu Sans",Verdana,sans-serif;color:#E9C46A}
         .sub{margin:0;font:14px/1.5 "DejaVu Sans",Verdana,sans-serif;color:#E8E2D4}

@@ -139,7 +139,8 @@ public static class InputPlanner
         if (fmt == InputFormat.Auto)
         {
             string name = Decompression.StripExtension(System.IO.Path.GetFileName(path)).ToLowerInvariant();
-            if (kind == CompressionKind.None && head.Length >= 4 && head[0] == 'P' && head[1] == 'A' && head[2] == 'R' && head[3] == '1') fmt = InputFormat.Parquet;
+            bool parquetMagic = head.Length >= 4 && head[0] == 'P' && head[1] == 'A' && head[2] == 'R' && head[3] == '1';
+            if (kind == CompressionKind.None && parquetMagic) fmt = InputFormat.Parquet;
             else if (name.EndsWith(".jsonl") || name.EndsWith(".ndjson")) fmt = InputFormat.JsonLines;
             else if (name.EndsWith(".parquet")) fmt = InputFormat.Parquet;
             else if (LooksLikeJsonLines(head)) fmt = InputFormat.JsonLines;
@@ -192,7 +193,8 @@ public static class InputPlanner
         return units;
     }
 
-    /// <summary>The first position p ≥ <paramref name="from"/> where a range may start: after a newline (followed by an ASCII letter, for that rule).</summary>
+    /// <summary>The first position p ≥ <paramref name="from"/> where a range may start: after a newline (followed by an
+    /// ASCII letter, for that rule).</summary>
     internal static long FindCut(Stream s, long from, RangeCut rule)
     {
         if (from <= 0) return 0;

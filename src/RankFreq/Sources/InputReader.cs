@@ -65,7 +65,8 @@ public static class InputReader
                 try { n = text.Read(buf, 0, BlockBytes); }
                 catch (DecoderFaultException e)
                 {
-                    throw new SourceException($"{f.Path}: corrupt or truncated {f.Compression.ToString().ToLowerInvariant()} data near byte {start + counted.BytesRead} ({e.Message})", e);
+                    throw new SourceException($"{f.Path}: corrupt or truncated {f.Compression.ToString().ToLowerInvariant()} "
+                        + $"data near byte {start + counted.BytesRead} ({e.Message})", e);
                 }
                 if (n <= 0) break;
                 var block = buf.AsSpan(0, n);
@@ -105,7 +106,10 @@ public static class InputReader
         uint tSize = System.Buffers.Binary.BinaryPrimitives.ReadUInt32LittleEndian(t[4..]);
         if (tCrc == crc && tSize == (uint)size) return;
         if (f.IsStdin)
-            throw new SourceException($"{f.Path}: gzip data on standard input is truncated, corrupt or of several members (which can be verified only from a file); pass the file instead");
+        {
+            throw new SourceException($"{f.Path}: gzip data on standard input is truncated, corrupt or of several members "
+                + "(which can be verified only from a file); pass the file instead");
+        }
         if (!GzipMembers.LastMemberVerifies(f.Path))
             throw new SourceException($"{f.Path}: truncated or corrupt gzip data (the final CRC-32/size match no complete member; {size} bytes decompressed)");
     }
@@ -122,7 +126,8 @@ public static class InputReader
         try
         {
             var field = reader.Schema.GetDataFields().FirstOrDefault(d => d.Name == options.TextColumn || d.Path.ToString() == options.TextColumn)
-                ?? throw new SourceException($"{f.Path}: no column '{options.TextColumn}' (columns: {string.Join(", ", reader.Schema.GetDataFields().Select(d => d.Name))}); use --text-column");
+                ?? throw new SourceException($"{f.Path}: no column '{options.TextColumn}' "
+                    + $"(columns: {string.Join(", ", reader.Schema.GetDataFields().Select(d => d.Name))}); use --text-column");
             if (field.ClrType != typeof(string) && field.ClrType != typeof(ReadOnlyMemory<char>))
                 throw new SourceException($"{f.Path}: column '{field.Name}' holds {field.ClrType.Name}, not text");
             var bytes = new byte[4096];
@@ -147,7 +152,11 @@ public static class InputReader
                         if (labels[i] is not { } label)
                         {
                             if (!options.SkipBadGroupValues)
-                                throw new SourceException($"{f.Path}: row {row}: column '{groupKey!.Name}' holds a value that is not a number, so it cannot be binned ({groupKey.Spec}); fix it or pass --skip-bad");
+                            {
+                                throw new SourceException($"{f.Path}: row {row}: column '{groupKey!.Name}' "
+                                    + "holds a value that is not a number, "
+                                    + $"so it cannot be binned ({groupKey.Spec}); fix it or pass --skip-bad");
+                            }
                             stats.BadGroupValues++;
                             continue;
                         }
@@ -296,7 +305,8 @@ public static class InputReader
             int level = 0;
             while (r.Read())
             {
-                if (r.TokenType == JsonTokenType.PropertyName && !found && r.CurrentDepth == level + 1 && level < _fieldPath.Length && r.ValueTextEquals(_fieldPath[level]))
+                if (r.TokenType == JsonTokenType.PropertyName && !found && r.CurrentDepth == level + 1
+                    && level < _fieldPath.Length && r.ValueTextEquals(_fieldPath[level]))
                 {
                     r.Read();
                     if (level == _fieldPath.Length - 1)

@@ -106,7 +106,8 @@ public sealed class SubwordTokenizer : ITokenizer
     /// <summary>The pre-tokenizer patterns of Microsoft.ML.Tokenizers 2.0.1 for the embedded encodings.</summary>
     internal static readonly IReadOnlyDictionary<string, string> TiktokenPatterns = new Dictionary<string, string>
     {
-        ["cl100k_base"] = @"'(?i:[sdmt]|ll|ve|re)|(?>[^\r\n\p{L}\p{N}]?)(?>\p{L}+)|(?>\p{N}{1,3})| ?(?>[^\s\p{L}\p{N}]+)(?>[\r\n]*)|(?>\s+)$|\s*[\r\n]|\s+(?!\S)|\s",
+        ["cl100k_base"] = @"'(?i:[sdmt]|ll|ve|re)|(?>[^\r\n\p{L}\p{N}]?)(?>\p{L}+)|(?>\p{N}{1,3})"
+            + @"| ?(?>[^\s\p{L}\p{N}]+)(?>[\r\n]*)|(?>\s+)$|\s*[\r\n]|\s+(?!\S)|\s",
         ["r50k_base"] = @"'(?:[sdmt]|ll|ve|re)| ?(?>\p{L}+)| ?(?>\p{N}+)| ?(?>[^\s\p{L}\p{N}]+)|(?>\s+)$|\s+(?!\S)|\s",
         ["o200k_base"] = O200kSplitter.Pattern,
     };
