@@ -15,7 +15,8 @@ internal static class ShiftVerb
         var candidate = new Option<string>("--candidate") { Description = "Tokenizer spec to compare to (as -t)", Required = true };
         var order = new Option<double>("--renyi-order")
         {
-            Description = "Order of the Rényi efficiency (Zouhar et al. 2023 recommend 2.5)", DefaultValueFactory = _ => 2.5,
+            Description = "Order of the Rényi efficiency (Zouhar et al. 2023 recommend 2.5)",
+            DefaultValueFactory = _ => 2.5,
         };
         var fo = new FitCliOptions(200);
         var output = new Option<string?>("--out", "-o") { Description = "Folder for shift.parquet and the unseen-entry lists" };

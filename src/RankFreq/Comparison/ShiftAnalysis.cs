@@ -40,7 +40,8 @@ public static class ShiftAnalysis
         long v = vocab > 0 ? vocab : s.TypeCount;
         var fig = new TokenizerFigures(tokenizer.Spec, s.TokenCount, s.TypeCount, counts.Summary.TextBytes, vocab,
             seenCount, HeadShare(s, 10), HeadShare(s, 100), HeadShare(s, 1000), Renyi.EntropyBits(s, 1),
-            options.RenyiOrder, Renyi.Efficiency(s, options.RenyiOrder, v), fit) { Spectrum = s };
+            options.RenyiOrder, Renyi.Efficiency(s, options.RenyiOrder, v), fit)
+        { Spectrum = s };
         return (fig, unseen);
     }
 

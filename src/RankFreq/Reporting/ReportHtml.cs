@@ -133,9 +133,10 @@ public static partial class ReportHtml
     private static string Family(string name) => name switch
     {
         "power_law_cutoff" => "the power law with exponential cut-off",
-        "stretched_exponential" or "discrete_weibull" => "the stretched exponential (discrete Weibull)",
-        "exponential" or "geometric" => "the exponential (geometric)",
-        "lognormal" or "discrete_lognormal" => "the lognormal (discretised)",
+        // prose keeps the published family names; tables name the discrete forms fitted
+        "stretched_exponential" or "discrete_weibull" => "the stretched exponential",
+        "exponential" or "geometric" => "the exponential",
+        "lognormal" or "discrete_lognormal" => "the lognormal",
         _ => "the " + name.Replace('_', ' '),
     };
 
