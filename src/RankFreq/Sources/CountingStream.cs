@@ -1,9 +1,3 @@
-using System.IO.Compression;
-using SharpCompress.Compressors;
-using SharpCompress.Compressors.BZip2;
-using SharpCompress.Compressors.Xz;
-using ZstdSharp;
-
 namespace RankFreq.Sources;
 
 /// <summary>Counts the bytes read through it (the offset reported when a decompressor fails).</summary>

@@ -1,9 +1,3 @@
-using System.IO.Compression;
-using SharpCompress.Compressors;
-using SharpCompress.Compressors.BZip2;
-using SharpCompress.Compressors.Xz;
-using ZstdSharp;
-
 namespace RankFreq.Sources;
 
 /// <summary>Replays bytes already read (a peek) before the rest of a stream.</summary>

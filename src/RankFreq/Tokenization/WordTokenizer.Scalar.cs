@@ -1,11 +1,7 @@
 using System.Buffers;
 using System.Runtime.CompilerServices;
-using RankFreq.Primitives;
 using System.Runtime.InteropServices;
-using System.Globalization;
 using System.Text;
-using System.Numerics;
-using System.Runtime.Intrinsics;
 
 namespace RankFreq.Tokenization;
 
