@@ -11,9 +11,11 @@ internal static class CountVerb
     {
         var common = new CorpusOptions();
         var output = new Option<string>("--out", "-o") { Description = "Count table to write (.parquet)", Required = true };
+        var reproducible = new Option<bool>("--reproducible") { Description = Reproducible };
         var cmd = new Command("count", "Count tokens exactly and write the rank table as Parquet.");
         common.AddTo(cmd);
         cmd.Options.Add(output);
+        cmd.Options.Add(reproducible);
         cmd.SetAction(async (pr, ct) =>
         {
             try
@@ -22,7 +24,7 @@ internal static class CountVerb
                 bool quiet = pr.GetValue(common.Quiet), json = pr.GetValue(common.Json);
                 var progress = new ConsoleProgress(stderr, quiet);
                 var result = await Task.Run(() => CountJob.RunAsync(pr.GetValue(common.Inputs)!, settings, pr.GetValue(output)!,
-                    pr.GetValue(common.RedactBelow), progress, ct), ct);
+                    pr.GetValue(common.RedactBelow), progress, ct, pr.GetValue(reproducible)), ct);
                 progress.Done();
                 OutputName.WarnIfNotParquet(stderr, pr.GetValue(output), "the count table");
                 var s = result.Summary;
@@ -35,6 +37,9 @@ internal static class CountVerb
         });
         return cmd;
     }
+
+    /// <summary>Help text of --reproducible (count and merge).</summary>
+    internal const string Reproducible = "Record no creation time in the table, so the same inputs give the same bytes";
 
     internal static Dictionary<string, object?> SummaryJson(CountSummary s) => ResultFields.ToMap(CountSummaryFields.All, s);
 

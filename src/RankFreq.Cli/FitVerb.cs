@@ -13,8 +13,8 @@ internal static class FitVerb
     {
         var input = new Argument<string>("input")
         {
-            Description = "A count table or spectrum table (.parquet), or a text list: counts, 'value types' or "
-                + "'count token' lines; - for standard input",
+            Description = "A count table or spectrum table (.parquet, or a folder of an engine's Parquet parts), or a "
+                + "text list: counts, 'value types' or 'count token' lines; - for standard input",
         };
         var fo = new FitCliOptions(2500);
         var threads = WholeNumber.Option<int>("--threads", 0, "Worker threads (0 or left out: all cores; results do not depend on it)");

@@ -14,13 +14,17 @@ internal static class MergeVerb
         var temp = new Option<string?>("--temp-dir") { Description = "Folder for spill runs" };
         var json = new Option<bool>("--json") { Description = "Machine-readable summary on stdout" };
         var quiet = new Option<bool>("--quiet", "-q") { Description = "No summary" };
-        var cmd = new Command("merge", "Merge count tables made with the same tokenizer, exactly.") { tables, output, memory, temp, json, quiet };
+        var reproducible = new Option<bool>("--reproducible") { Description = CountVerb.Reproducible };
+        var cmd = new Command("merge", "Merge count tables made with the same tokenizer, exactly.")
+        {
+            tables, output, memory, temp, json, quiet, reproducible,
+        };
         cmd.SetAction(async (pr, ct) =>
         {
             try
             {
                 var s = await MergeJob.RunAsync(pr.GetValue(tables)!, pr.GetValue(output)!,
-                    CliApp.ParseSize(pr.GetValue(memory), "--memory"), pr.GetValue(temp), ct);
+                    CliApp.ParseSize(pr.GetValue(memory), "--memory"), pr.GetValue(temp), ct, pr.GetValue(reproducible));
                 foreach (var w in s.Warnings) stderr.WriteLine($"rankfreq: warning: {w}");
                 OutputName.WarnIfNotParquet(stderr, pr.GetValue(output), "the merged table");
                 if (pr.GetValue(json))

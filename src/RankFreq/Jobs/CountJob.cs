@@ -28,13 +28,16 @@ public static class CountJob
         return CountEngine.Count(tokenizer, Shard(files, settings), skipped, settings, progress, ct);
     }
 
-    /// <summary>Counts and writes the count table to <paramref name="output"/> atomically.</summary>
+    /// <summary>Counts and writes the count table to <paramref name="output"/> atomically; with
+    /// <paramref name="reproducible"/> the footer holds no creation time, so the same inputs and tokenizer give the
+    /// same bytes whatever the thread count, memory budget or hour.</summary>
     public static async Task<CountJobResult> RunAsync(IReadOnlyList<string> inputs, CountSettings settings, string output,
-        long redactBelow = 0, IProgress<CountProgress>? progress = null, CancellationToken ct = default)
+        long redactBelow = 0, IProgress<CountProgress>? progress = null, CancellationToken ct = default, bool reproducible = false)
     {
         // the table is never its own input (a second run writing into a folder it counts)
         using var result = Count(inputs, settings with { Source = (settings.Source ?? new()).Skipping(output) }, progress, ct);
         var meta = CountTableMetadata.From(result.Summary, redactBelow);
+        if (reproducible) meta = meta.WithoutCreationTime();
         await CountTableFile.WriteAsync(output, result.Rows, result.HasTokenIds, meta, ct);
         return new CountJobResult(result.Summary, output, Warnings(result.Summary));
     }

@@ -18,9 +18,9 @@ public sealed record MergeSummary(int Tables, long Tokens, long Types, int Spill
 public static class MergeJob
 {
     /// <summary>Merges <paramref name="inputs"/> into <paramref name="output"/>; refuses mixed tokenizer settings and
-    /// redacted tables.</summary>
+    /// redacted tables. With <paramref name="reproducible"/> the footer holds no creation time.</summary>
     public static async Task<MergeSummary> RunAsync(IReadOnlyList<string> inputs, string output, long memoryBytes = 0,
-        string? tempDir = null, CancellationToken ct = default)
+        string? tempDir = null, CancellationToken ct = default, bool reproducible = false)
     {
         var sw = Stopwatch.StartNew();
         if (inputs.Count == 0) throw new StorageException("merge: no count tables given");
@@ -68,7 +68,7 @@ public static class MergeJob
                 Types = spectrum.TypeCount,
                 Inputs = allInputs,
                 ToolVersion = CountTableMetadata.CurrentVersion,
-                CreatedUtc = DateTime.UtcNow,
+                CreatedUtc = reproducible ? default : DateTime.UtcNow,
                 RedactedBelow = 0,
             };
             await CountTableFile.WriteAsync(output, rows, ids, meta, ct);

@@ -5,7 +5,8 @@ using RankFreq.Counting;
 
 namespace RankFreq.Storage;
 
-/// <summary>Footer metadata of a count table (keys under the prefix <c>rankfreq.</c>).</summary>
+/// <summary>Footer metadata of a count table (keys under the prefix <c>rankfreq.</c>). A <c>CreatedUtc</c> of
+/// <c>default</c> means no creation time is recorded (a reproducible table: the same inputs give the same bytes).</summary>
 public sealed record CountTableMetadata(
     string Tokenizer,
     string Normalization,
@@ -24,7 +25,17 @@ public sealed record CountTableMetadata(
     public static CountTableMetadata From(CountSummary s, long redactBelow) =>
         new(s.TokenizerSpec, s.Normalization, s.CaseRule, s.Tokens, s.Types, s.Inputs, CurrentVersion, DateTime.UtcNow, redactBelow);
 
-    internal Dictionary<string, string> ToFooter() => new()
+    /// <summary>The same metadata without a creation time, so that the table's bytes depend on its content only.</summary>
+    public CountTableMetadata WithoutCreationTime() => this with { CreatedUtc = default };
+
+    internal Dictionary<string, string> ToFooter()
+    {
+        var footer = Footer();
+        if (CreatedUtc == default) footer.Remove("rankfreq.created_utc");
+        return footer;
+    }
+
+    private Dictionary<string, string> Footer() => new()
     {
         ["rankfreq.tokenizer"] = Tokenizer,
         ["rankfreq.normalization"] = Normalization,
@@ -69,8 +80,9 @@ public sealed record CountTableMetadata(
         return new CountTableMetadata(Get("tokenizer"), Get("normalization"), Get("case"),
             long.Parse(Get("tokens"), CultureInfo.InvariantCulture), long.Parse(Get("types"), CultureInfo.InvariantCulture), inputs,
             f.GetValueOrDefault("rankfreq.version", "?"),
-            DateTime.Parse(f.GetValueOrDefault("rankfreq.created_utc", "2000-01-01T00:00:00Z"), CultureInfo.InvariantCulture,
-                DateTimeStyles.AdjustToUniversal | DateTimeStyles.AssumeUniversal),
+            f.TryGetValue("rankfreq.created_utc", out var created)
+                ? DateTime.Parse(created, CultureInfo.InvariantCulture, DateTimeStyles.AdjustToUniversal | DateTimeStyles.AssumeUniversal)
+                : default,
             long.Parse(f.GetValueOrDefault("rankfreq.redacted_below", "0"), CultureInfo.InvariantCulture));
     }
 }

@@ -13,8 +13,10 @@ public static class SpectrumInput
     private const int PeekBytes = 8192;
 
     /// <summary>
-    /// Reads <paramref name="path"/> ("-" for standard input): a count table (Parquet, from <c>count</c>), a spectrum
-    /// table (Parquet with columns frequency and types, as <c>profile</c> writes), or text lines, each one of: a count;
+    /// Reads <paramref name="path"/> ("-" for standard input): a count table (Parquet, from <c>count</c>, or any Parquet
+    /// table with a count column, one row per type, as a SQL merge writes it), a spectrum table (Parquet with columns
+    /// frequency and types, as <c>profile</c> or a SQL GROUP BY writes it), a folder of the Parquet parts of one such
+    /// table (see <see cref="EngineTables"/>), or text lines, each one of: a count;
     /// "value types" (a spectrum line); "count token" (as <c>sort | uniq -c</c> prints; a token listed twice has its
     /// counts added). Separators are spaces, tabs, commas or semicolons; blank lines and lines starting with # are
     /// ignored, and a first line that does not start with a number is taken for a header and skipped. When some line
@@ -38,7 +40,7 @@ public static class SpectrumInput
         }
         else
         {
-            if (Directory.Exists(path)) throw new FitInputException($"{path}: a folder; fit reads one count table or count list");
+            if (Directory.Exists(path)) return await LoadPartsAsync(EngineTables.Parts(path), ct);
             if (!File.Exists(path)) throw new FitInputException($"{path}: no such file");
             using var fs = File.OpenRead(path);
             n = await fs.ReadAtLeastAsync(head, PeekBytes, throwOnEndOfStream: false, ct);
@@ -62,31 +64,10 @@ public static class SpectrumInput
 
     private static async Task<(FrequencySpectrum, string, IReadOnlyList<string>)> LoadParquetAsync(string path, CancellationToken ct)
     {
-        await using (var raw = await OpenParquetAsync(path, ct))
+        if (!await EngineTables.IsRankFreqCountTableAsync(path, ct))
         {
-            var df = raw.Schema.GetDataFields();
-            var freq = df.FirstOrDefault(f => f.Name == "frequency" && f.ClrType == typeof(long));
-            var types = df.FirstOrDefault(f => f.Name == "types" && f.ClrType == typeof(long));
-            if (freq is not null && types is not null && df.All(f => f.Name != "count"))
-            {
-                var pairs = new List<(long, long)>();
-                for (int g = 0; g < raw.RowGroupCount; g++)
-                {
-                    using var rg = raw.OpenRowGroupReader(g);
-                    var f = new long[rg.RowCount];
-                    var t = new long[rg.RowCount];
-                    await rg.ReadAsync<long>(freq, f.AsMemory(), null, ct);
-                    await rg.ReadAsync<long>(types, t.AsMemory(), null, ct);
-                    for (int i = 0; i < f.Length; i++)
-                    {
-                        if (f[i] <= 0 || t[i] <= 0)
-                            throw new FitInputException($"{path}: row {pairs.Count + 1}: frequency {f[i]} with {t[i]} types (both must be positive)");
-                        pairs.Add((f[i], t[i]));
-                    }
-                }
-                if (pairs.Count == 0) throw new FitInputException($"{path}: the spectrum table has no rows");
-                return (FrequencySpectrum.FromPairs(pairs), "spectrum table", []);
-            }
+            var (spectrum, description) = await EngineTables.LoadAsync([path], ct);
+            return (spectrum, description, []);
         }
         try
         {
@@ -96,13 +77,18 @@ public static class SpectrumInput
         catch (StorageException e) { throw new FitInputException(e.Message, e); }
     }
 
-    private static async Task<ParquetReader> OpenParquetAsync(string path, CancellationToken ct)
+    /// <summary>A folder of Parquet parts read as one table. RankFreq's own count tables are separate tables (shards,
+    /// say): their rows are not types of one table until merged by token, so a folder of several is refused.</summary>
+    private static async Task<(FrequencySpectrum, string, IReadOnlyList<string>)> LoadPartsAsync(IReadOnlyList<string> parts,
+        CancellationToken ct)
     {
-        try { return await ParquetReader.CreateAsync(path, cancellationToken: ct); }
-        catch (Exception e) when (e is not OperationCanceledException)
-        {
-            throw new FitInputException($"{path}: not a readable Parquet file ({e.Message.Split('\n')[0]})", e);
-        }
+        if (parts.Count == 1) return await LoadParquetAsync(parts[0], ct);
+        foreach (var p in parts)
+            if (await EngineTables.IsRankFreqCountTableAsync(p, ct))
+                throw new FitInputException($"{p}: a count table of its own among {parts.Count} in one folder; the same "
+                    + "token may be counted in several, so merge the tables by token first and fit the merged table");
+        var (spectrum, description) = await EngineTables.LoadAsync(parts, ct);
+        return (spectrum, description, []);
     }
 
     /// <summary>One content line: its number, the first field, and the rest (a second number or a token).</summary>
