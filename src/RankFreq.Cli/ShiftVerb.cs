@@ -19,7 +19,15 @@ internal static class ShiftVerb
             DefaultValueFactory = _ => 2.5,
         };
         var fo = new FitCliOptions(200);
-        var output = new Option<string?>("--out", "-o") { Description = "Folder for shift.parquet and the unseen-entry lists" };
+        var output = new Option<string?>("--out", "-o")
+        {
+            Description = "Folder for shift.parquet, the unseen-entry lists, plots and report.html",
+        };
+        var by = new Option<string?>("--by")
+        {
+            Description = "Fertility per group: file, folder, field:NAME, field:NAME/WIDTH, column:NAME (as contrast)",
+        };
+        var title = new Option<string?>("--title") { Description = "Title of the report (default: the input name)" };
         var cmd = new Command("tokshift", "Count the same text with two tokenizers and compare the distributions: "
             + "fertility, bytes per token, vocabulary use, concentration, entropy, tail exponent.");
         common.AddTo(cmd);
@@ -27,7 +35,7 @@ internal static class ShiftVerb
         cmd.Options.Remove(common.RedactBelow);
         cmd.Options.Remove(common.Shard);
         fo.AddTo(cmd);
-        foreach (var o in new Option[] { baseline, candidate, order, output }) cmd.Options.Add(o);
+        foreach (var o in new Option[] { baseline, candidate, order, output, by, title }) cmd.Options.Add(o);
         cmd.SetAction(async (pr, ct) =>
         {
             try
@@ -36,12 +44,18 @@ internal static class ShiftVerb
                 if (!(renyi >= 0) || double.IsInfinity(renyi)) throw new UsageException("--renyi-order must be 0 or more");
                 var count = common.Settings(pr);
                 var fit = fo.Build(pr, count.Threads);
+                Sources.GroupKey? key = null;
+                if (pr.GetValue(by) is { } byValue)
+                {
+                    try { key = Sources.GroupKey.Parse(byValue); }
+                    catch (FormatException e) { throw new UsageException(e.Message); }
+                }
                 var settings = new ShiftSettings(count, pr.GetValue(baseline)!, pr.GetValue(candidate)!,
-                    new ShiftOptions(fit, renyi), pr.GetValue(output));
+                    new ShiftOptions(fit, renyi), pr.GetValue(output), key, pr.GetValue(title));
                 bool quiet = pr.GetValue(common.Quiet);
-                if (!quiet && !pr.GetValue(common.Json))
-                    stderr.WriteLine($"rankfreq: counting with {settings.Baseline} and {settings.Candidate} (the text is read twice)");
-                var r = await ShiftJob.RunAsync(pr.GetValue(common.Inputs)!, settings, ct);
+                var cp = new ConsoleProgress(stderr, quiet);
+                var r = await Task.Run(() => ShiftJob.RunAsync(pr.GetValue(common.Inputs)!, settings, cp, ct), ct);
+                cp.Done();
                 foreach (var w in r.Warnings) stderr.WriteLine($"rankfreq: warning: {w}");
                 if (pr.GetValue(common.Json)) stdout.WriteLine(JsonText.Write(ResultFields.ToMap(ShiftFields.Json, r.Shift)));
                 else if (!quiet) Write(stdout, r);
@@ -63,6 +77,12 @@ internal static class ShiftVerb
         o.WriteLine();
         ConsoleTable.Pairs(o, ResultFields.ForPeople(ShiftFields.Differences, s));
         o.WriteLine();
+        if (s.GroupKey is not null)
+        {
+            o.WriteLine($"  by {s.GroupKey}:");
+            ConsoleTable.Rows(o, ShiftGroups.Fields, s.Groups);
+            o.WriteLine();
+        }
         foreach (var line in ShiftFindings.Of(s)) o.WriteLine($"  {line}");
         foreach (var f in r.Files) o.WriteLine($"  wrote {f}");
     }

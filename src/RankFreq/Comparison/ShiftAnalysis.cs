@@ -16,9 +16,11 @@ public sealed record ShiftOptions(FitOptions Fit, double RenyiOrder = Renyi.Defa
 /// </summary>
 public static class ShiftAnalysis
 {
-    /// <summary>Figures of one count result. Reads <paramref name="counts"/>' rows once (for the vocabulary ids seen).</summary>
+    /// <summary>Figures of one count result. Reads <paramref name="counts"/>' rows once (for the vocabulary ids seen).
+    /// <paramref name="textBytes"/> is the text the tokenizer read (default: the count summary's text bytes, which for
+    /// JSON Lines include the record syntax).</summary>
     public static (TokenizerFigures Figures, IReadOnlyList<UnseenEntry> Unseen) Describe(CountResult counts,
-        ITokenizer tokenizer, ShiftOptions options, CancellationToken ct = default)
+        ITokenizer tokenizer, ShiftOptions options, CancellationToken ct = default, long? textBytes = null)
     {
         var s = counts.Spectrum;
         int vocab = tokenizer.VocabularySize;
@@ -38,7 +40,7 @@ public static class ShiftAnalysis
             ? throw new FitInputException($"{tokenizer.Spec}: the text gave no tokens")
             : TailFitter.Fit(s, options.Fit, null, ct);
         long v = vocab > 0 ? vocab : s.TypeCount;
-        var fig = new TokenizerFigures(tokenizer.Spec, s.TokenCount, s.TypeCount, counts.Summary.TextBytes, vocab,
+        var fig = new TokenizerFigures(tokenizer.Spec, s.TokenCount, s.TypeCount, textBytes ?? counts.Summary.TextBytes, vocab,
             seenCount, HeadShare(s, 10), HeadShare(s, 100), HeadShare(s, 1000), Renyi.EntropyBits(s, 1),
             options.RenyiOrder, Renyi.Efficiency(s, options.RenyiOrder, v), fit)
         { Spectrum = s };

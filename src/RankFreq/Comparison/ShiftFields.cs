@@ -66,6 +66,9 @@ public static class ShiftFields
         .. Differences,
         new("baseline", FieldKind.Nested, r => ResultFields.ToMap(Side, r.Baseline), "baseline", Shown: false),
         new("candidate", FieldKind.Nested, r => ResultFields.ToMap(Side, r.Candidate), "candidate", Shown: false),
+        new("group_key", FieldKind.Text, r => r.GroupKey, "group key", Shown: false),
+        new("groups", FieldKind.Nested, r => r.GroupKey is null ? null : ResultFields.ToMaps(ShiftGroups.Fields, r.Groups),
+            "groups", Shown: false),
     ];
 
     /// <summary>The review list of vocabulary entries never seen.</summary>

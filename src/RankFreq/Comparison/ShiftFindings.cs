@@ -37,6 +37,7 @@ public static class ShiftFindings
         }
         else
             lines.Add($"α could not be compared: {Why(b.Fit) ?? Why(c.Fit)}.");
+        lines.AddRange(ShiftGroups.Findings(r));
         lines.Add("Figures such as types and entropy depend on the amount of text; compare tokenizers on the same text only.");
         return lines;
     }

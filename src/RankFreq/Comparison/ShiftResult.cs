@@ -22,4 +22,10 @@ public sealed record ShiftResult(
 
     /// <summary>Relative change in token count: fertility − 1 (−0.12 means 12% fewer tokens).</summary>
     public double TokenChange => Fertility - 1;
+
+    /// <summary>The group key of <see cref="Groups"/> as written (<c>field:source</c>); null without one.</summary>
+    public string? GroupKey { get; init; }
+
+    /// <summary>Fertility and bytes per token per group, in the key's order; empty without a group key.</summary>
+    public IReadOnlyList<ShiftGroup> Groups { get; init; } = [];
 }

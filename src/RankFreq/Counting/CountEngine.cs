@@ -23,7 +23,12 @@ public static partial class CountEngine
     public static CountResult Count(ITokenizer tokenizer, IReadOnlyList<InputFile> files, IReadOnlyList<SkippedFile> skipped,
         CountSettings settings, IProgress<CountProgress>? progress = null, CancellationToken ct = default)
     {
-        var pass = Run(tokenizer, files, skipped, settings, null, progress, ct);
+        return Rank(Run(tokenizer, files, skipped, settings, null, progress, ct));
+    }
+
+    /// <summary>Ranks a pass's tables into a count result; on failure removes the pass's spill runs.</summary>
+    private static CountResult Rank(Pass pass)
+    {
         bool handedOver = false;
         try
         {

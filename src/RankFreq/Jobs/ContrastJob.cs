@@ -86,13 +86,13 @@ public static class ContrastJob
         var (files, skipped) = InputPlanner.Expand(inputs, source);
         CheckFormats(files, key);
         var counted = CountEngine.CountGroups(tokenizer, files, skipped, count with { Source = source }, key, progress, ct);
-        try { CheckKeyFound(counted, files, key); }
+        try { CheckKeyFound(counted.Groups.Select(g => g.Group), files, key); }
         catch { counted.Dispose(); throw; }
         return counted;
     }
 
     /// <summary>A field key needs JSON Lines, a column key Parquet: any other input is an error naming it.</summary>
-    private static void CheckFormats(IReadOnlyList<InputFile> files, GroupKey key)
+    internal static void CheckFormats(IReadOnlyList<InputFile> files, GroupKey key)
     {
         var need = key.Kind switch { GroupKind.Field => InputFormat.JsonLines, GroupKind.Column => InputFormat.Parquet, _ => InputFormat.Auto };
         if (need == InputFormat.Auto) return;
@@ -102,9 +102,9 @@ public static class ContrastJob
     }
 
     /// <summary>A record key that no record has is almost surely a typo: an error naming the fields the first record has.</summary>
-    private static void CheckKeyFound(GroupedCountResult counted, IReadOnlyList<InputFile> files, GroupKey key)
+    internal static void CheckKeyFound(IEnumerable<string> labels, IReadOnlyList<InputFile> files, GroupKey key)
     {
-        if (key.PerFile || counted.Groups.Any(g => g.Group != GroupKey.Missing)) return;
+        if (key.PerFile || labels.Any(g => g != GroupKey.Missing)) return;
         string hint = "";
         var first = files.FirstOrDefault(f => f.Format == InputFormat.JsonLines && !f.IsStdin);
         if (key.Kind == GroupKind.Field && first is not null) hint = FirstRecordFields(first.Path);

@@ -1,5 +1,7 @@
 using RankFreq.Comparison;
+using RankFreq.Counting;
 using RankFreq.Reporting;
+using RankFreq.Sources;
 using RankFreq.Storage;
 using RankFreq.Tokenization;
 
@@ -16,69 +18,79 @@ public sealed record ShiftJobResult(ShiftResult Shift, IReadOnlyList<string> Fil
 /// tokenizer and compares the two distributions (<see cref="ShiftAnalysis"/>).
 /// </summary>
 /// <remarks>
-/// The two counts run concurrently through <see cref="CountJob.Count"/>, each on half the threads, so the text is read
-/// (and decompressed, parsed) twice. Tokenizing both ways in one pass over the text is future work.
+/// Both tokenizers count in one pass (<see cref="CountEngine.CountPair"/>): the text is read, decompressed and parsed
+/// once and each block goes to both tokenizers, each with its own tables, so each side equals a <c>count</c> with that
+/// tokenizer. Bytes per token use the text the tokenizers read (for JSON Lines and Parquet, the text fields only).
 /// </remarks>
 public static class ShiftJob
 {
     /// <summary>Counts, compares and, with an output folder, writes shift.parquet, unseen.parquet (the candidate's
-    /// vocabulary entries never seen) and baseline-unseen.parquet (the baseline's, when it has a vocabulary)
-    /// and the overlay plots shift-rank-frequency and
-    /// shift-ccdf (SVG, and PNG when a font was found).</summary>
+    /// vocabulary entries never seen), baseline-unseen.parquet (the baseline's, when it has a vocabulary),
+    /// shift-groups.parquet (with a group key), the overlay plots shift-rank-frequency and shift-ccdf (SVG, and PNG
+    /// when a font was found) and report.html, each file atomically.</summary>
     public static async Task<ShiftJobResult> RunAsync(IReadOnlyList<string> inputs, ShiftSettings s,
-        CancellationToken ct = default)
+        IProgress<CountProgress>? progress = null, CancellationToken ct = default)
     {
         var source = s.Count.Source ?? new();
         if (s.OutputDirectory is not null) source = source.Skipping(s.OutputDirectory);
-        int threads = Math.Max(1, s.Count.EffectiveThreads / 2);
-        var count = s.Count with { Source = source, Threads = threads };
-        var options = s.Options with { Fit = s.Options.Fit with { Threads = threads } };
+        if (s.Key is not null) source = source with { Group = s.Key };
         var warnings = new List<string>();
-
-        (TokenizerFigures, IReadOnlyList<UnseenEntry>) Side(string spec, bool report)
+        var baseTok = TokenizerFactory.Create(s.Baseline);
+        var candTok = TokenizerFactory.Create(s.Candidate);
+        var (files, skipped) = InputPlanner.Expand(inputs, source);
+        if (s.Key is not null) ContrastJob.CheckFormats(files, s.Key);
+        var count = s.Count with { Source = source };
+        ShiftResult shift;
+        CountSummary summary;
+        using (var pair = CountEngine.CountPair(baseTok, candTok, files, skipped, count, s.Key, progress, ct))
         {
-            var tokenizer = TokenizerFactory.Create(spec);
-            using var counted = CountJob.Count(inputs, count with { Tokenizer = spec }, null, ct);
-            if (report) lock (warnings) warnings.AddRange(CountJob.Warnings(counted.Summary));
-            return ShiftAnalysis.Describe(counted, tokenizer, options, ct);
+            if (s.Key is not null) ContrastJob.CheckKeyFound(pair.Groups.Select(g => g.Group), files, s.Key);
+            summary = pair.First.Summary;
+            warnings.AddRange(CountJob.Warnings(summary));
+            var b = ShiftAnalysis.Describe(pair.First, baseTok, s.Options, ct, pair.TextBytes);
+            var c = ShiftAnalysis.Describe(pair.Second, candTok, s.Options, ct, pair.TextBytes);
+            shift = ShiftAnalysis.Compare(b, c);
+            if (s.Key is { } key)
+                shift = shift with
+                {
+                    GroupKey = key.Spec,
+                    Groups = ShiftGroups.From(pair.Groups, key.Order(pair.Groups.Select(g => g.Group)), shift.Fertility),
+                };
         }
-        var baseline = Task.Run(() => Side(s.Baseline, true), ct);
-        var candidate = Task.Run(() => Side(s.Candidate, false), ct);
-        await Task.WhenAll(baseline, candidate);
-        var shift = ShiftAnalysis.Compare(await baseline, await candidate);
 
-        var files = new List<string>();
+        var written = new List<string>();
         if (s.OutputDirectory is { } dir)
         {
             try { Directory.CreateDirectory(dir); }
             catch (Exception e) when (e is IOException or UnauthorizedAccessException)
             { throw new StorageException($"{dir}: cannot create the output folder ({e.Message})", e); }
-            string path = Path.Combine(dir, "shift.parquet");
-            await FieldTableFile.WriteAsync(path, "shift", ShiftFields.Flat, [shift], ct);
-            files.Add(path);
-            if (shift.Candidate.VocabularySize > 0)
+            async Task Table<T>(string name, string table, IReadOnlyList<Primitives.ResultField<T>> fields, IReadOnlyList<T> rows)
             {
-                path = Path.Combine(dir, "unseen.parquet");
-                await FieldTableFile.WriteAsync(path, "unseen", ShiftFields.Unseen, shift.Unseen, ct);
-                files.Add(path);
+                string path = Path.Combine(dir, name);
+                await FieldTableFile.WriteAsync(path, table, fields, rows, ct);
+                written.Add(path);
             }
+            await Table("shift.parquet", "shift", ShiftFields.Flat, [shift]);
+            if (shift.Candidate.VocabularySize > 0) await Table("unseen.parquet", "unseen", ShiftFields.Unseen, shift.Unseen);
             if (shift.Baseline.VocabularySize > 0)
+                await Table("baseline-unseen.parquet", "unseen", ShiftFields.Unseen, shift.BaselineUnseen);
+            if (shift.GroupKey is not null) await Table("shift-groups.parquet", "shift_groups", ShiftGroups.Fields, shift.Groups);
+            var rendered = new[] { Plots.ShiftRankFrequency(shift), Plots.ShiftCcdf(shift), Plots.ShiftByGroup(shift) }
+                .OfType<RenderedPlot>().ToList();
+            foreach (var p in await PlotFiles.WriteAsync(dir, rendered))
             {
-                path = Path.Combine(dir, "baseline-unseen.parquet");
-                await FieldTableFile.WriteAsync(path, "unseen", ShiftFields.Unseen, shift.BaselineUnseen, ct);
-                files.Add(path);
+                written.Add(p.SvgPath);
+                if (p.PngPath is not null) written.Add(p.PngPath);
             }
-            foreach (var plot in new[] { Plots.ShiftRankFrequency(shift), Plots.ShiftCcdf(shift) }.OfType<RenderedPlot>())
-            {
-                path = Path.Combine(dir, plot.Name + ".svg");
-                await AtomicFile.WriteTextAsync(path, plot.Svg);
-                files.Add(path);
-                if (plot.Png is null) continue;
-                path = Path.Combine(dir, plot.Name + ".png");
-                await AtomicFile.WriteBytesAsync(path, plot.Png);
-                files.Add(path);
-            }
+            if (Plots.Font is null)
+                warnings.Add("no font file found (looked in the fontconfig folders), so PNG plots were skipped; install a font "
+                    + "(Debian: fonts-dejavu-core) to get them. SVG plots and the report are complete.");
+            string title = s.Title ?? (inputs.Count == 1
+                ? Path.GetFileName(Path.TrimEndingDirectorySeparator(Path.GetFullPath(inputs[0]))) : $"{inputs.Count} inputs");
+            string report = Path.Combine(dir, "report.html");
+            await AtomicFile.WriteTextAsync(report, ReportHtml.BuildShift(title, summary, shift, ShiftFindings.Of(shift), rendered));
+            written.Add(report);
         }
-        return new ShiftJobResult(shift, files, warnings);
+        return new ShiftJobResult(shift, written, warnings);
     }
 }

@@ -30,20 +30,56 @@ public static partial class Plots
         if (r.Baseline.Spectrum is null || r.Candidate.Spectrum is null) return null;
         var p = NewPlot("Share of types at least this frequent, two tokenizers", "frequency x (log scale)", "P(X ≥ x) (log scale)");
         LogAxes(p);
-        foreach (var (f, color) in new[] { (r.Baseline, Ink), (r.Candidate, Ember) })
+        var sides = new[] { (r.Baseline, Ink), (r.Candidate, Ember) };
+        foreach (var (f, color) in sides)
         {
             var (xs, ys) = CcdfPoints(f.Spectrum!);
             var obs = p.Add.ScatterPoints(xs, ys, color);
             obs.MarkerSize = 4;
             var pl = f.Fit.PowerLaw;
             obs.LegendText = pl.Status == Fitting.FitStatus.Ok ? $"{f.Spec}, α = {pl.Alpha:F3}" : f.Spec;
-            if (pl.Status == Fitting.FitStatus.Ok)
-            {
-                var v = p.Add.VerticalLine(Math.Log10(pl.Xmin), 1.5f, color);
-                v.LegendText = $"{f.Spec} xmin = {pl.Xmin:N0}";
-            }
+        }
+        // the dashed lines come after every marker: the plot's shared paint keeps a dash pattern for the next plottable,
+        // and the SVG canvas cannot draw markers with a dash path effect (it prints "Unsupported path effect in
+        // addPaint." for each one, on the process's own output)
+        foreach (var (f, color) in sides)
+        {
+            var pl = f.Fit.PowerLaw;
+            if (pl.Status != Fitting.FitStatus.Ok) continue;
+            var v = p.Add.VerticalLine(Math.Log10(pl.Xmin), 1.5f, color);
+            v.LinePattern = LinePattern.Dashed;
+            v.LegendText = $"{f.Spec} xmin = {pl.Xmin:N0}";
         }
         p.ShowLegend(Alignment.LowerLeft);
         return Render(p, "shift-ccdf", "Complementary CDFs of both tokenizers, xmin of each");
+    }
+
+    /// <summary>Fertility of each group (candidate tokens per baseline token), the whole text's as a vertical line;
+    /// groups served worse in ember, better in moss; null without groups.</summary>
+    public static RenderedPlot? ShiftByGroup(ShiftResult r)
+    {
+        if (r.Groups.Count == 0) return null;
+        string unit = r.Baseline.Spec == "words" ? "word" : "baseline token";
+        var p = NewPlot("Fertility by group", $"{r.Candidate.Spec} tokens per {unit}", "");
+        var pos = new double[r.Groups.Count];
+        for (int i = 0; i < r.Groups.Count; i++)
+        {
+            var g = r.Groups[i];
+            pos[i] = r.Groups.Count - i;
+            if (!double.IsFinite(g.Fertility)) continue;
+            var c = g.Service switch { GroupService.Worse => Ember, GroupService.Better => Moss, _ => Ink };
+            var dot = p.Add.ScatterPoints(new[] { g.Fertility }, new[] { pos[i] }, c);
+            dot.MarkerSize = 9;
+        }
+        p.Axes.Left.SetTicks(pos, r.Groups.Select(g => g.Group.Length > 28 ? g.Group[..27] + "…" : g.Group).ToArray());
+        p.Axes.SetLimitsY(0.4, r.Groups.Count + 0.6);
+        if (double.IsFinite(r.Fertility))
+        {
+            var all = p.Add.VerticalLine(r.Fertility, 1.5f, Ink);
+            all.LegendText = $"whole text {r.Fertility:F3}";
+            p.ShowLegend(Alignment.LowerRight);
+        }
+        return Render(p, "shift-groups", "Fertility of each group against the whole text (ember: served worse, moss: better)",
+            logAxes: false);
     }
 }

@@ -91,8 +91,7 @@ public static partial class ReportHtml
         Row(sb, "normalisation / case", $"{c.Normalization} / {c.CaseRule}");
         if (c.ReplacedBytes > 0) Row(sb, "invalid UTF-8 bytes replaced", N(c.ReplacedBytes));
         if (c.MalformedRecords > 0) Row(sb, "malformed records skipped", N(c.MalformedRecords));
-        foreach (var i in c.Inputs.Take(50)) Row(sb, "input", $"{H(i.Path == "-" ? "standard input" : i.Path)} ({N(i.Bytes)} bytes)");
-        if (c.Inputs.Count > 50) Row(sb, "input", $"… and {c.Inputs.Count - 50} more");
+        InputRows(sb, c);
         sb.Append("</tbody></table></section>");
         sb.Append("<footer>Method: discrete power-law maximum likelihood with the KS-chosen lower cut-off "
             + "and bootstrap goodness of fit (Clauset, Shalizi &amp; Newman 2009); Vuong's test (1989).</footer>"
@@ -178,6 +177,13 @@ public static partial class ReportHtml
             sb.Append("</tr>");
         }
         sb.Append("</tbody></table>");
+    }
+
+    /// <summary>One settings row per input (the first 50).</summary>
+    private static void InputRows(StringBuilder sb, CountSummary c)
+    {
+        foreach (var i in c.Inputs.Take(50)) Row(sb, "input", $"{H(i.Path == "-" ? "standard input" : i.Path)} ({N(i.Bytes)} bytes)");
+        if (c.Inputs.Count > 50) Row(sb, "input", $"… and {c.Inputs.Count - 50} more");
     }
 
     private static void Row(StringBuilder sb, string k, string v) => sb.Append($"<tr><th>{H(k)}</th><td>{v}</td></tr>");

@@ -202,6 +202,14 @@ public static class InputPlanner
         var buf = new byte[1 << 16];
         long pos = from - 1;      // position of buf[0]
         bool afterNewline = false;
+        // for the strictest rule the newline must follow a printable ASCII byte (read from the byte before from - 1)
+        bool strict = rule == RangeCut.NewlineAfterVisibleBeforeAsciiLetter;
+        byte prev = 0;
+        if (strict && from >= 2)
+        {
+            s.Seek(from - 2, SeekOrigin.Begin);
+            prev = (byte)s.ReadByte();
+        }
         while (true)
         {
             int n = s.Read(buf, 0, buf.Length);
@@ -210,7 +218,8 @@ public static class InputPlanner
             {
                 byte b = buf[i];
                 if (afterNewline && (rule == RangeCut.AnyNewline || char.IsAsciiLetter((char)b))) return pos + i;
-                afterNewline = b == (byte)'\n';
+                afterNewline = b == (byte)'\n' && (!strict || prev is > 0x20 and < 0x7F);
+                prev = b;
             }
             pos += n;
         }

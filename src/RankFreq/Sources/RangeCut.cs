@@ -9,4 +9,8 @@ public enum RangeCut
     AnyNewline,
     /// <summary>After a newline followed by an ASCII letter (a chunk boundary of the r50k, cl100k and o200k rules).</summary>
     NewlineBeforeAsciiLetter,
+    /// <summary>After a newline that follows a printable ASCII character and precedes an ASCII letter (r50k: its
+    /// rule splits a run of whitespace before a letter one character short, so a range must not end in such a run).
+    /// </summary>
+    NewlineAfterVisibleBeforeAsciiLetter,
 }

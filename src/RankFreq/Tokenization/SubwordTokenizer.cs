@@ -52,7 +52,10 @@ public sealed class SubwordTokenizer : ITokenizer
     public int VocabularySize => _display.Length;
     private readonly string[]? _base64; // tiktoken: token bytes per id, decoded for display only when asked
     /// <inheritdoc/>
-    public Sources.RangeCut RangeCut => _pre is null ? Sources.RangeCut.None : Sources.RangeCut.NewlineBeforeAsciiLetter;
+    public Sources.RangeCut RangeCut => _pre is null ? Sources.RangeCut.None
+        // r50k's rule ends a whitespace run before a letter one character early, unless the text ends there
+        : Spec == "r50k_base" ? Sources.RangeCut.NewlineAfterVisibleBeforeAsciiLetter
+        : Sources.RangeCut.NewlineBeforeAsciiLetter;
 
     /// <summary>The underlying Microsoft.ML.Tokenizers encoder (used by tests and benchmarks for comparison).</summary>
     public Tokenizer Encoder => _tokenizer;
@@ -244,16 +247,20 @@ public sealed class SubwordTokenizer : ITokenizer
                 return;
             }
             if (_text.Length < CutAt) return;
-            int cut = SafeCut(_text.Held);
+            int cut = SafeCut(_text.Held, owner.RangeCut == Sources.RangeCut.NewlineAfterVisibleBeforeAsciiLetter);
             if (cut <= 0) return;
             Encode(_text.Held[..cut]);
             _text.Consume(cut);
         }
 
-        internal static int SafeCut(ReadOnlySpan<char> t)
+        /// <summary>The last position where the held text can be encoded on its own; with
+        /// <paramref name="visibleBefore"/> (r50k) a newline cut also needs a printable ASCII character before the
+        /// newline, as the range cut does.</summary>
+        internal static int SafeCut(ReadOnlySpan<char> t, bool visibleBefore)
         {
             for (int p = t.Length - 1; p > 0; p--)
-                if (t[p - 1] == '\n' && char.IsAsciiLetter(t[p])) return p;
+                if (t[p - 1] == '\n' && char.IsAsciiLetter(t[p]) && (!visibleBefore || (p >= 2 && t[p - 2] is > ' ' and < '\x7F')))
+                    return p;
             for (int p = t.Length - 2; p > 0; p--)
                 if (t[p] == ' ' && char.IsLetter(t[p - 1]) && char.IsLetter(t[p + 1])) return p;
             return t.Length > 16 * CutAt ? t.Length : -1;

@@ -8,7 +8,7 @@ namespace RankFreq.Tests.Tokenization;
 
 public class SubwordTokenizerTests
 {
-    private static List<int> ViaSession(SubwordTokenizer tok, string text, int block = 1 << 30)
+    internal static List<int> ViaSession(SubwordTokenizer tok, string text, int block = 1 << 30)
     {
         var sink = new ListSink();
         var s = tok.CreateSession(sink);
