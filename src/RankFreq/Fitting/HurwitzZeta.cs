@@ -44,15 +44,19 @@ public static class HurwitzZeta
     /// ln ζ(s, q) with the ratios ζ'/ζ and ζ''/ζ. Every term is computed relative to q^−s (the sums are ζ·q^s, which
     /// lies between 1 and about 1 + q/(s−1)), so nothing underflows for any s &gt; 1 and q ≤ 2^62.
     /// </summary>
-    public static LogZeta Log(double s, double q, bool derivatives = true)
+    public static LogZeta Log(double s, double q, bool derivatives = true) => LogAt(s, q, Math.Log(q), derivatives);
+
+    /// <summary><see cref="Log(double, double, bool)"/> given ln q (= Math.Log(q), so the result is the same to the
+    /// bit); where q ≥ 12 the scaled leading power is exactly 1 and is not recomputed.</summary>
+    internal static LogZeta LogAt(double s, double q, double lnQ, bool derivatives)
     {
-        double shift = s * Math.Log(q);
-        var z = Core(s, q, derivatives, shift);
+        double shift = s * lnQ;
+        var z = Core(s, q, derivatives, shift, lnQ);
         return new LogZeta(Math.Log(z.Value) - shift, z.D1 / z.Value, z.D2 / z.Value);
     }
 
     // Sums scaled by e^shift (every power a^−s taken as e^(shift − s ln a)); shift = 0 gives ζ itself.
-    private static ZetaValue Core(double s, double q, bool derivatives, double shift)
+    private static ZetaValue Core(double s, double q, bool derivatives, double shift, double lnQ = double.NaN)
     {
         if (!(s > 1)) throw new ArgumentOutOfRangeException(nameof(s), s, "Hurwitz zeta needs s > 1");
         if (!(q > 0)) throw new ArgumentOutOfRangeException(nameof(q), q, "Hurwitz zeta needs q > 0");
@@ -70,8 +74,9 @@ public static class HurwitzZeta
             }
             a += 1;
         }
-        double la = Math.Log(a);
-        double apow = Math.Exp(shift - s * la);   // a^-s (scaled)
+        bool atQ = a == q && !double.IsNaN(lnQ);  // then shift − s·ln a is exactly 0
+        double la = atQ ? lnQ : Math.Log(a);
+        double apow = atQ ? 1 : Math.Exp(shift - s * la);   // a^-s (scaled)
         double integral = apow * a / (s - 1);     // a^(1-s)/(s-1)
         double half = 0.5 * apow;
         z += integral + half;

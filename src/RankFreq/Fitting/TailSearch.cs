@@ -26,7 +26,7 @@ namespace RankFreq.Fitting;
 /// cannot be pruned, and only blocks whose CDF change is comparable to d survive, so in practice the search is
 /// close to O(k log k). <see cref="SearchFullScan"/> keeps the point-by-point scan as the reference.</para>
 /// </remarks>
-public sealed class TailSearch
+public sealed partial class TailSearch
 {
     /// <summary>Largest α considered; a likelihood still rising there is reported as <see cref="FitStatus.AtBound"/>
     /// or <see cref="FitStatus.NoMaximum"/>.</summary>
@@ -72,8 +72,21 @@ public sealed class TailSearch
     /// MLE of α for the tail starting at value index <paramref name="i"/> (xmin = its value, or <paramref name="xmin"/> if
     /// given). Status <see cref="FitStatus.AtBound"/> with α = <see cref="MaxAlpha"/> when the likelihood still rises there.
     /// </summary>
-    public PowerLawFit FitAt(int i, double warmAlpha = 2, long xmin = 0)
+    public PowerLawFit FitAt(int i, double warmAlpha = 2, long xmin = 0) => FitCore(i, warmAlpha, xmin, null, out _);
+
+    /// <summary>Where the Newton iteration for α starts: the warm start if it lies inside the range, else the closed-form
+    /// approximation kept away from the ends.</summary>
+    private static double StartAlpha(double warmAlpha, double approx) =>
+        double.IsFinite(warmAlpha) && warmAlpha > MinAlpha && warmAlpha < MaxAlpha ? warmAlpha : Math.Clamp(approx, 1.05, MaxAlpha - 1);
+
+    /// <summary>Closed-form approximation of α for the tail at index i with cut-off xmin (Clauset et al. 2009, eq. 3.7).</summary>
+    private double Approx(int i, long xmin) => 1 + _nSuffix[i] / (_lnSuffix[i] - _nSuffix[i] * Math.Log(xmin - 0.5));
+
+    /// <summary><see cref="FitAt"/>, optionally given ln ζ with its ratios already evaluated at the start (the same values
+    /// the first iteration would compute); returns ln ζ(α, xmin) at the α returned (NaN when no α is).</summary>
+    private PowerLawFit FitCore(int i, double warmAlpha, long xmin, LogZeta? first, out double lnZeta)
     {
+        lnZeta = double.NaN;
         if (xmin <= 0) xmin = _v[i];
         long n = _nSuffix[i];
         double sumLn = _lnSuffix[i];
@@ -83,7 +96,8 @@ public sealed class TailSearch
                 FitStatus.TooFewPoints, "no types at or above xmin");
         }
         double meanLn = sumLn / n;
-        double approx = 1 + n / (sumLn - n * Math.Log(xmin - 0.5));
+        double lnXmin = xmin == _v[i] ? _lnV[i] : Math.Log(xmin);
+        double approx = Approx(i, xmin);
         if (i == _k - 1)
             return new PowerLawFit(double.NaN, double.NaN, approx, xmin, n, double.NaN, double.NaN, 0, FitStatus.AllEqual,
                 _v[i] == xmin
@@ -92,14 +106,14 @@ public sealed class TailSearch
                     : $"all {n:N0} counts at or above xmin = {xmin:N0} equal {_v[i]:N0}: a single value has no tail shape to fit");
         // score(α)/n = E_α[ln X] − meanLn = −ζ'/ζ − meanLn, decreasing in α; keep a bracket [lo, hi] around its root
         double lo = MinAlpha, hi = MaxAlpha;
-        double a = double.IsFinite(warmAlpha) && warmAlpha > lo && warmAlpha < hi ? warmAlpha : Math.Clamp(approx, 1.05, hi - 1);
+        double a = StartAlpha(warmAlpha, approx);
         int it = 0;
         bool capTried = false, atCap = false;
         LogZeta z = default;
         double evaluated = double.NaN; // where z was taken
         for (; it < 100; it++)
         {
-            z = HurwitzZeta.Log(a, xmin);
+            z = it == 0 && first is { } f0 ? f0 : HurwitzZeta.LogAt(a, xmin, lnXmin, true);
             evaluated = a;
             double score = -meanLn - z.R1;
             double info = z.R2 - z.R1 * z.R1; // −score'
@@ -120,7 +134,8 @@ public sealed class TailSearch
             if (Math.Abs(next - a) < 1e-11 * a || hi - lo < 1e-12) break;
             a = next;
         }
-        var zf = a == evaluated ? z : HurwitzZeta.Log(a, xmin);
+        var zf = a == evaluated ? z : HurwitzZeta.LogAt(a, xmin, lnXmin, true);
+        lnZeta = zf.Ln;
         double fisher = n * (zf.R2 - zf.R1 * zf.R1);
         double ll = -a * sumLn - n * zf.Ln;
         var status = FitStatus.Ok;
@@ -140,9 +155,13 @@ public sealed class TailSearch
     /// Returns as soon as the distance reaches <paramref name="giveUpAbove"/> (the value returned is then only a lower
     /// bound); blocks of values that provably cannot raise the distance are skipped (see the type's remarks).
     /// </summary>
-    public double Ks(int i, double alpha, double giveUpAbove = double.PositiveInfinity, long xmin = 0)
+    public double Ks(int i, double alpha, double giveUpAbove = double.PositiveInfinity, long xmin = 0) =>
+        KsGiven(i, alpha, giveUpAbove, xmin, double.NaN);
+
+    /// <summary><see cref="Ks"/> given ln ζ(α, xmin) when already known (NaN: computed here).</summary>
+    private double KsGiven(int i, double alpha, double giveUpAbove, long xmin, double lnZeta)
     {
-        var w = new KsWalk(this, i, alpha, xmin, giveUpAbove);
+        var w = new KsWalk(this, i, alpha, xmin, giveUpAbove, lnZeta);
         // the first values one by one (cheap steps; most poor candidates fail here), then the blocks, largest bound first
         int j = i;
         int end = Math.Min(_k, i + Prefix);
@@ -157,7 +176,7 @@ public sealed class TailSearch
     /// <summary>Reference: the same distance by visiting every value (with the early stops of the old scan).</summary>
     internal double KsFullScan(int i, double alpha, double giveUpAbove = double.PositiveInfinity, long xmin = 0)
     {
-        var w = new KsWalk(this, i, alpha, xmin, giveUpAbove);
+        var w = new KsWalk(this, i, alpha, xmin, giveUpAbove, double.NaN);
         for (int j = i; j < _k; j++)
         {
             if (w.Leaf(j) || w.Done) break;
@@ -177,11 +196,11 @@ public sealed class TailSearch
         public bool Done;        // reached giveUp
         private long _x;         // T = P(X ≥ _x)
 
-        public KsWalk(TailSearch s, int i, double alpha, long xmin, double giveUp)
+        public KsWalk(TailSearch s, int i, double alpha, long xmin, double giveUp, double lnZeta)
         {
             _s = s; _alpha = alpha; _giveUp = giveUp;
             if (xmin <= 0) xmin = s._v[i];
-            _lnZ0 = HurwitzZeta.LogValue(alpha, xmin);
+            _lnZ0 = double.IsNaN(lnZeta) ? HurwitzZeta.LogValue(alpha, xmin) : lnZeta;
             N = s._nSuffix[i];
             D = 0; C = 0; T = 1; _x = xmin; Done = false;
             if (s._v[i] > xmin)
@@ -362,21 +381,46 @@ public sealed class TailSearch
         // every stride-th candidate first, so that the best distance is small early and the rest are abandoned sooner;
         // ties go to the lower index as in the full scan (a lower-index candidate is abandoned only above the best).
         int stride = full ? 1 : Math.Max(1, (int)Math.Sqrt(candidates));
+        // Pruned search only: candidates whose KS distance provably reaches the best so far are dropped after one ζ
+        // evaluation (TailSearch.Screen.cs); their interior status is then unknown when the test was above the start
+        bool screened = false;
+        var memo = new ScreenMemo();
         for (int pass = 0; pass < (stride > 1 ? 2 : 1); pass++)
         {
             double warm = best?.Alpha ?? 2;
+            double offset = double.NaN; // α − closed-form approximation at the last interior fit: predicts the next start
             for (int i = 0; i < candidates; i++)
             {
                 bool sampled = i % stride == 0;
                 if (stride > 1 && sampled != (pass == 0)) continue;
-                var f = FitAt(i, warm);
-                if (f.Status is not (FitStatus.Ok or FitStatus.AtBound)) continue;
-                if (f.Status == FitStatus.Ok) { anyInterior = true; warm = f.Alpha; }
                 double giveUp = i < bestI ? Math.BitIncrement(bestD) : bestD;
-                double d = full ? KsFullScan(i, f.Alpha, giveUp) : Ks(i, f.Alpha, giveUp);
+                PowerLawFit f;
+                double lnZeta = double.NaN;
+                if (full) f = FitAt(i, warm);
+                else
+                {
+                    double start = StartAlpha(double.IsNaN(offset) ? warm : Approx(i, _v[i]) + offset, Approx(i, _v[i]));
+                    LogZeta? first = null;
+                    if (double.IsFinite(bestD) && i < _k - 1)
+                    {
+                        var sc = Screen(i, start, giveUp, ref memo);
+                        if (sc.Pruned) { screened |= sc.Upward; continue; }
+                        first = sc.AtStart;
+                    }
+                    f = FitCore(i, start, 0, first, out lnZeta);
+                }
+                if (f.Status is not (FitStatus.Ok or FitStatus.AtBound)) continue;
+                if (f.Status == FitStatus.Ok)
+                {
+                    anyInterior = true; warm = f.Alpha;
+                    offset = f.Alpha - f.AlphaApprox;
+                }
+                double d = full ? KsFullScan(i, f.Alpha, giveUp) : KsGiven(i, f.Alpha, giveUp, 0, lnZeta);
                 if (d < bestD || d == bestD && i < bestI) { bestD = d; bestI = i; best = f with { KsDistance = d }; }
             }
         }
+        // a screened candidate above its start might have had an interior fit: decide anyInterior exactly
+        if (best?.Status == FitStatus.AtBound && !anyInterior && screened) return SearchCore(minTail, fixedXmin, full: true);
         if (best is null)
         {
             if (total < minTail)

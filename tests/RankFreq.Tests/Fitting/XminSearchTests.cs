@@ -35,14 +35,18 @@ public class XminSearchTests
         {
             var buf = RandomSpectrum(seed);
             var s = new TailSearch(buf.Values, buf.Mult, buf.Count);
-            var fast = s.Search(20);
-            var full = s.SearchFullScan(20);
-            Assert.Equal(full.Status, fast.Status);
-            Assert.Equal(full.Xmin, fast.Xmin);
-            // α to the Newton tolerance (1e-11 relative): the two orders warm-start the iteration from different neighbours
-            Assert.True(Math.Abs(full.Alpha - fast.Alpha) <= 1e-10 * full.Alpha, $"seed {seed}: α {fast.Alpha:R} vs {full.Alpha:R}");
-            Assert.True(Math.Abs(full.KsDistance - fast.KsDistance) <= 1e-9, $"seed {seed}: KS {fast.KsDistance:R} vs {full.KsDistance:R}");
+            AssertSameFit(s.SearchFullScan(20), s.Search(20), seed);
         }
+    }
+
+    /// <summary>The pruned search's fit equals the full scan's: status, xmin, α and KS distance.</summary>
+    internal static void AssertSameFit(PowerLawFit full, PowerLawFit fast, ulong seed)
+    {
+        Assert.Equal(full.Status, fast.Status);
+        Assert.Equal(full.Xmin, fast.Xmin);
+        // α to the Newton tolerance (1e-11 relative): the two orders warm-start the iteration from different neighbours
+        Assert.True(Math.Abs(full.Alpha - fast.Alpha) <= 1e-10 * full.Alpha, $"seed {seed}: α {fast.Alpha:R} vs {full.Alpha:R}");
+        Assert.True(Math.Abs(full.KsDistance - fast.KsDistance) <= 1e-9, $"seed {seed}: KS {fast.KsDistance:R} vs {full.KsDistance:R}");
     }
 
     [Fact]

@@ -1,0 +1,124 @@
+namespace RankFreq.Fitting;
+
+public sealed partial class TailSearch
+{
+    /// <summary>Added to the level a screening bound must reach before a candidate is dropped: covers the rounding of
+    /// the tail masses and of ζ (~1e-12) and the Newton tolerance of the fitted α (1e-11 relative).</summary>
+    private const double ScreenMargin = 1e-9;
+    private const int ScreenPoints = 20; // points tried per candidate before it is fitted after all
+
+    /// <summary>Where the last screening bounds were reached, per side: the next candidate tries these values first.</summary>
+    private struct ScreenMemo
+    {
+        public int Up, Down, Both;
+        public ScreenMemo() { Up = -1; Down = -1; Both = -1; }
+    }
+
+    /// <summary>Outcome of <see cref="Screen"/>: dropped or not, the side of α̂ tested, ln ζ with its ratios at the start.</summary>
+    private readonly record struct ScreenResult(bool Pruned, bool Upward, LogZeta? AtStart);
+
+    /// <summary>
+    /// Exact lower bound on candidate i's KS distance at its fitted α̂, from one ζ evaluation at the Newton start α₀;
+    /// the candidate is dropped when the bound reaches <paramref name="giveUp"/> (it could not beat the best so far).
+    /// </summary>
+    /// <remarks>
+    /// Proof sketch. (1) The discrete power laws on x ≥ xmin are ordered in α: p_β(x)/p_α(x) ∝ x^(α−β) falls with x for
+    /// β &gt; α, so a larger exponent is smaller in likelihood-ratio order, hence stochastically smaller: its CDF
+    /// G_β(x) ≥ G_α(x) at every x. (2) The score E_α[ln X] − mean(ln x) falls with α (its derivative is −Var ln X), so
+    /// its sign at α₀ says on which side the root α̂ lies (the returned α may be at the cap 30: still on that side).
+    /// (3) If α̂ &gt; α₀, D(α̂) ≥ sup_x (G_α̂(x) − F(x)) ≥ G_α₀(x) − F(x) at any tail point x; if α̂ &lt; α₀, D(α̂) ≥
+    /// F(x) − G_α₀(x). (4) G_α₀ needs tail masses T(y) = ζ(α₀, y)/ζ(α₀, xmin); with f(t) = t^−α₀ convex, the
+    /// trapezoid and midpoint rules bound the sum: ∫_y^∞ f + f(y)/2 ≤ ζ(α₀, y) ≤ ∫_{y−½}^∞ f (relative width about
+    /// α₀(α₀−1)/8y²), and the side tested uses the bound that keeps the deviation a lower bound. Each point x = v_j
+    /// (and x = v_j − 1, where the empirical CDF is still that of v_{j−1}) is a valid witness, so any subset of points
+    /// gives a lower bound. A margin of 1e-9 absorbs rounding and the Newton tolerance. (5) When the start is within a
+    /// tiny Newton step of α̂ (the usual case: it is predicted from the neighbour's α − closed-form offset) both sides
+    /// count, with a slack for how far G can move between α₀ and α̂ (<see cref="ScreenAt"/>); a step too small to trust
+    /// its sign and too large for that slack leaves the candidate to be fitted. So a dropped candidate has a KS distance at
+    /// least the best so far (strictly above it for a lower index), and the full scan would not choose it either:
+    /// the search returns the same xmin and α (tested against <see cref="SearchFullScan"/> on random spectra).
+    /// The evaluation at α₀ is the Newton iteration's first, so a candidate that survives costs nothing more than
+    /// the points tried. Points are tried where the previous candidate's bound was reached (neighbouring tails share
+    /// all but one value), then at offsets 0, 1, 3, 7, … from the candidate, at most <see cref="ScreenPoints"/>.
+    /// </remarks>
+    private ScreenResult Screen(int i, double a0, double giveUp, ref ScreenMemo memo)
+    {
+        var (z0, pt, slack) = ScreenAt(i, a0);
+        if (pt is not { } p) return new ScreenResult(false, false, z0);
+        double limit = giveUp + ScreenMargin + slack;
+        ref int remembered = ref p.Both ? ref memo.Both : ref p.Up ? ref memo.Up : ref memo.Down;
+        if (remembered > i && remembered < _k && p.Deviation(remembered) >= limit) return new ScreenResult(true, p.Up, z0);
+        int tried = 0;
+        for (long off = 0; i + off < _k && tried < ScreenPoints; off = 2 * off + 1, tried++)
+        {
+            int j = (int)(i + off);
+            if (j == remembered || p.Deviation(j) < limit) continue;
+            remembered = j;
+            return new ScreenResult(true, p.Up, z0);
+        }
+        return new ScreenResult(false, p.Up, z0);
+    }
+
+    /// <summary>
+    /// ln ζ at the start, the deviations to test (null when the side of α̂ cannot be trusted) and the slack to add to
+    /// the give-up level: when the start is within a tiny Newton step δ of α̂ both sides count, less what G can move
+    /// over |α̂ − α₀| ≤ 2δ + 1e-10·α₀ (|∂G(x)/∂α| = |Cov(1{X ≤ x}, ln X)| ≤ ½ sd ln X; taken as sd ln X for the change
+    /// of the variance along the step).
+    /// </summary>
+    private (LogZeta Z0, ScreenPoint? Points, double Slack) ScreenAt(int i, double a0)
+    {
+        var z0 = HurwitzZeta.LogAt(a0, _v[i], _lnV[i], true);
+        double score = -_lnSuffix[i] / _nSuffix[i] - z0.R1;
+        double info = z0.R2 - z0.R1 * z0.R1;
+        double step = score / info;
+        if (!double.IsFinite(step) || !(info > 0)) return (z0, null, 0);
+        double slack = Math.Sqrt(info) * (2 * Math.Abs(step) + 1e-10 * a0);
+        bool both = slack <= 1e-6;
+        if (!both && !(Math.Abs(step) > 1e-9 * a0)) return (z0, null, 0);
+        return (z0, new ScreenPoint(this, i, a0, z0.Ln, both, score > 0), both ? slack : 0);
+    }
+
+    /// <summary>Test hook: the largest screening bound over every point of the tail at start α₀, margins taken off
+    /// (NaN when the screen would not be applied); it must never exceed the KS distance at the fitted α.</summary>
+    internal double ScreenBound(int i, double a0)
+    {
+        var (_, pt, slack) = ScreenAt(i, a0);
+        if (pt is not { } p) return double.NaN;
+        double b = double.NegativeInfinity;
+        for (int j = i; j < _k; j++) b = Math.Max(b, p.Deviation(j));
+        return b - ScreenMargin - slack;
+    }
+
+    /// <summary>One-sided deviations of the tail at index i from the law at α₀, as lower bounds (see <see cref="Screen"/>).</summary>
+    private readonly struct ScreenPoint(TailSearch s, int i, double a0, double lnZ0, bool both, bool up)
+    {
+        /// <summary>Both sides count (the start is within a tiny step of α̂).</summary>
+        public bool Both => both;
+
+        /// <summary>α̂ lies above the start: G − F is the side tested.</summary>
+        public bool Up => up;
+
+        private readonly double _lnInt = -Math.Log(a0 - 1) - lnZ0; // ln(1/((α₀−1) ζ(α₀, xmin)))
+
+        /// <summary>Lower bound on G − F (up) or F − G (down) at x = v_j and, for j &gt; i, at x = v_j − 1.</summary>
+        public double Deviation(int j)
+        {
+            double n = s._nSuffix[i];
+            double fAt = (n - s._nSuffix[j + 1]) / n;      // empirical CDF at v_j
+            double lnY = s._lnV[j];
+            double pmf = Math.Exp(-a0 * lnY - lnZ0);
+            double tLo, tHi;                                // bounds on T(v_j) = P(X ≥ v_j)
+            if (j == i) { tLo = 1; tHi = 1; }
+            else
+            {
+                tLo = Math.Exp((1 - a0) * lnY + _lnInt) + 0.5 * pmf;
+                tHi = Math.Exp((1 - a0) * Math.Log(s._v[j] - 0.5) + _lnInt);
+            }
+            double down = fAt - (1 - tLo + pmf);             // F − G at v_j, G(v_j) = 1 − T(v_j) + p(v_j)
+            if (!up && !both) return down;
+            double dev = 1 - tHi + pmf - fAt;                // G − F at v_j
+            if (j > i) dev = Math.Max(dev, 1 - tHi - (n - s._nSuffix[j]) / n); // at v_j − 1
+            return both ? Math.Max(dev, down) : dev;
+        }
+    }
+}
