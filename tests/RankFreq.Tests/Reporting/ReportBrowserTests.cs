@@ -72,8 +72,20 @@ public class ReportBrowserTests
         WriteGeneratedText(d["generated.txt"]);
         var (code, _, e) = Cli.Run("profile", d["generated.txt"], "-o", d["out"], "--reps", "100", "--ci-reps", "100", "-q");
         Assert.True(code == 0, e);
-        string report = Path.Combine(d["out"], "report.html");
+        using var j = Check(Path.Combine(d["out"], "report.html"));
+        foreach (var w in new[] { "1280", "390" })
+        {
+            var r = j.RootElement.GetProperty("widths").GetProperty(w);
+            Assert.Equal(5, r.GetProperty("figures").GetInt32()); // rank–frequency, CCDF, spectrum, bootstrap α, growth
+            Assert.True(r.GetProperty("checked").GetInt32() > 100, "few text elements checked");
+            Assert.True(r.GetProperty("scrollWidth").GetInt32() <= r.GetProperty("viewport").GetInt32());
+        }
+    }
 
+    /// <summary>Runs tests/js/report-check.mjs on <paramref name="report"/> at 1280 and 390 px and asserts that it found
+    /// nothing; returns its JSON result.</summary>
+    internal static JsonDocument Check(string report)
+    {
         var psi = new ProcessStartInfo(BrowserTools.Node!, [Path.Combine(Repo.Root, "tests", "js", "report-check.mjs"), report, "--widths", "1280,390"])
         {
             RedirectStandardOutput = true,
@@ -87,16 +99,10 @@ public class ReportBrowserTests
         Assert.True(p.WaitForExit(180_000), "the browser check timed out");
         string log = output + err.Result;
         Assert.True(output.TrimStart().StartsWith('{'), "the browser check printed no result: " + log);
-        using var j = JsonDocument.Parse(output);
+        var j = JsonDocument.Parse(output);
         var failures = j.RootElement.GetProperty("failures").EnumerateArray().Select(f => f.GetString()).ToList();
         Assert.True(failures.Count == 0, string.Join("\n", failures));
         Assert.Equal(0, p.ExitCode);
-        foreach (var w in new[] { "1280", "390" })
-        {
-            var r = j.RootElement.GetProperty("widths").GetProperty(w);
-            Assert.Equal(5, r.GetProperty("figures").GetInt32()); // rank–frequency, CCDF, spectrum, bootstrap α, growth
-            Assert.True(r.GetProperty("checked").GetInt32() > 100, "few text elements checked");
-            Assert.True(r.GetProperty("scrollWidth").GetInt32() <= r.GetProperty("viewport").GetInt32());
-        }
+        return j;
     }
 }
