@@ -48,11 +48,11 @@ public static class ShiftJob
         var shift = ShiftAnalysis.Compare(await baseline, await candidate);
 
         var files = new List<string>();
-        if (s.OutputDirectory is { } dir)
+        if (s.OutputDirectory is not null)
         {
-            try { Directory.CreateDirectory(dir); }
-            catch (Exception e) when (e is IOException or UnauthorizedAccessException)
-            { throw new StorageException($"{dir}: cannot create the output folder ({e.Message})", e); }
+            // written into a temporary folder that is renamed into place at the end
+            using var folder = OutputFolder.Create(s.OutputDirectory);
+            string dir = folder.Path;
             string path = Path.Combine(dir, "shift.parquet");
             await FieldTableFile.WriteAsync(path, "shift", ShiftFields.Flat, [shift], ct);
             files.Add(path);
@@ -78,6 +78,9 @@ public static class ShiftJob
                 await AtomicFile.WriteBytesAsync(path, plot.Png);
                 files.Add(path);
             }
+            ct.ThrowIfCancellationRequested();
+            folder.Publish();
+            files = files.Select(folder.Final).ToList();
         }
         return new ShiftJobResult(shift, files, warnings);
     }
