@@ -3,6 +3,7 @@ using System.Text;
 using Parquet;
 using RankFreq.Counting;
 using RankFreq.Fitting;
+using RankFreq.Sources;
 
 namespace RankFreq.Storage;
 
@@ -72,11 +73,15 @@ public static class SpectrumInput
                 var pairs = new List<(long, long)>();
                 for (int g = 0; g < raw.RowGroupCount; g++)
                 {
-                    using var rg = raw.OpenRowGroupReader(g);
-                    var f = new long[rg.RowCount];
-                    var t = new long[rg.RowCount];
-                    await rg.ReadAsync<long>(freq, f.AsMemory(), null, ct);
-                    await rg.ReadAsync<long>(types, t.AsMemory(), null, ct);
+                    var (f, t) = await ParquetPages.ReadAsync(path, g, async () =>
+                    {
+                        using var rg = raw.OpenRowGroupReader(g);
+                        var f = new long[rg.RowCount];
+                        var t = new long[rg.RowCount];
+                        await rg.ReadAsync<long>(freq, f.AsMemory(), null, ct);
+                        await rg.ReadAsync<long>(types, t.AsMemory(), null, ct);
+                        return (f, t);
+                    });
                     for (int i = 0; i < f.Length; i++)
                     {
                         if (f[i] <= 0 || t[i] <= 0)
@@ -85,20 +90,25 @@ public static class SpectrumInput
                     }
                 }
                 if (pairs.Count == 0) throw new FitInputException($"{path}: the spectrum table has no rows");
-                return (FrequencySpectrum.FromPairs(pairs), "spectrum table", []);
+                return (Spectrum(pairs, path), "spectrum table", []);
             }
         }
         try
         {
             await using var r = await CountTableFile.OpenAsync(path, ct);
-            return (r.ReadSpectrum(), $"count table ({r.Metadata.Tokenizer}, {r.Metadata.Tokens:N0} tokens)", []);
+            return (Sum(r.ReadSpectrum, path), $"count table ({r.Metadata.Tokenizer}, {r.Metadata.Tokens:N0} tokens)", []);
         }
         catch (StorageException e) { throw new FitInputException(e.Message, e); }
     }
 
     private static async Task<ParquetReader> OpenParquetAsync(string path, CancellationToken ct)
     {
-        try { return await ParquetReader.CreateAsync(path, cancellationToken: ct); }
+        try
+        {
+            var r = await ParquetReader.CreateAsync(path, cancellationToken: ct);
+            _ = r.Schema.GetDataFields(); // the schema is decoded when first asked for: a damaged one fails here
+            return r;
+        }
         catch (Exception e) when (e is not OperationCanceledException)
         {
             throw new FitInputException($"{path}: not a readable Parquet file ({e.Message.Split('\n')[0]})", e);
@@ -160,7 +170,20 @@ public static class SpectrumInput
             notes.Add($"{name}: {repeated:N0} token line{(repeated == 1 ? " repeats" : "s repeat")} an earlier token "
                 + $"(first: {firstRepeat}); their counts were added");
         pairs.AddRange(byToken.Values.Select(v => (v.Count, 1L)));
-        return (FrequencySpectrum.FromPairs(pairs), tokens ? "token list" : "count list", notes);
+        return (Spectrum(pairs, name), tokens ? "token list" : "count list", notes);
+    }
+
+    private static FrequencySpectrum Spectrum(List<(long, long)> pairs, string name) => Sum(() => FrequencySpectrum.FromPairs(pairs), name);
+
+    /// <summary>Counts whose total passes what a 64-bit count holds are bad input, not a bug.</summary>
+    private static FrequencySpectrum Sum(Func<FrequencySpectrum> build, string name)
+    {
+        try { return build(); }
+        catch (OverflowException e)
+        {
+            throw new FitInputException($"{name}: the counts add up to more than {long.MaxValue:N0} tokens, more than a count can hold; "
+                + "the file is damaged or not a list of counts", e);
+        }
     }
 
     private static bool IsInteger(string s) => long.TryParse(s, NumberStyles.AllowLeadingSign, CultureInfo.InvariantCulture, out _);
