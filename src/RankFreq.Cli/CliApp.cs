@@ -12,8 +12,9 @@ public static class CliApp
     /// <summary>Exit codes: 0 ok, 1 error in the input or environment, 2 usage, 70 internal error (a bug), 130 interrupted.</summary>
     public const int Ok = 0, Error = 1, Usage = 2, Internal = 70, Interrupted = 130;
 
-    /// <summary>Runs the command line; output goes to the given writers.</summary>
-    public static async Task<int> RunAsync(string[] args, TextWriter stdout, TextWriter stderr)
+    /// <summary>Runs the command line; output goes to the given writers. <paramref name="ct"/> stops the verb (the
+    /// process's signals are turned into it by <see cref="Signals"/>).</summary>
+    public static async Task<int> RunAsync(string[] args, TextWriter stdout, TextWriter stderr, CancellationToken ct = default)
     {
         var root = Build(stdout, stderr);
         var parsed = root.Parse(args);
@@ -41,7 +42,9 @@ public static class CliApp
         }
         try
         {
-            int code = await parsed.InvokeAsync(new InvocationConfiguration { Output = stdout, Error = stderr });
+            // signals are handled by Signals (SIGTERM's own exit code, a deadline), not by the parser library
+            var config = new InvocationConfiguration { Output = stdout, Error = stderr, ProcessTerminationTimeout = null };
+            int code = await parsed.InvokeAsync(config, ct);
             if (parsed.Action is HelpAction) Examples.Write(stdout, command == root ? "rankfreq" : command.Name);
             return code;
         }

@@ -1,3 +1,3 @@
 using RankFreq.Cli;
 
-return await CliApp.RunAsync(args, Console.Out, Console.Error);
+return await Signals.RunAsync(args, Console.Out, Console.Error);

@@ -19,7 +19,8 @@ internal static class NoTokens
         if (stats.Records > 0 && stats.MalformedRecords + stats.MissingField == stats.Records)
             return $"{where}: no record could be read: {stats.MalformedRecords:N0} malformed, {stats.MissingField:N0} "
                 + $"without a text field '{source.TextField}' (--strict stops at the first malformed one)";
-        return $"no tokens found in {string.Join(", ", files.Select(f => f.Path))}"
+        // the skipped files are named too: when every input was skipped, they are the only names there are
+        return $"no tokens found in {string.Join(", ", files.Select(f => f.Path).Concat(skipped.Select(f => f.Path)))}"
             + (skipped.Count > 0 ? $" ({skipped.Count} file(s) skipped as binary)" : "");
     }
 

@@ -1,4 +1,5 @@
 using System.Text;
+using RankFreq.Primitives;
 
 namespace RankFreq.Counting;
 
@@ -18,7 +19,10 @@ internal sealed class SpillSet(string? root) : IDisposable
             if (_dir is null)
             {
                 string baseDir = root ?? Path.GetTempPath();
-                _dir = Path.Combine(baseDir, $"rankfreq-spill-{Environment.ProcessId}-{Guid.NewGuid():N}");
+                // spill folders of killed runs are removed by the next run that spills here
+                TempNames.SweepStaleOnce(baseDir);
+                _dir = TempNames.Inside(baseDir, "spill");
+                TempNames.Hold(_dir);
                 try { Directory.CreateDirectory(_dir); }
                 catch (Exception e) { throw new CountingException($"{baseDir}: cannot create a temporary folder for spill runs ({e.Message})", e); }
             }
@@ -58,6 +62,7 @@ internal sealed class SpillSet(string? root) : IDisposable
             {
                 try { Directory.Delete(_dir, recursive: true); } catch (IOException) { } catch (UnauthorizedAccessException) { }
             }
+            if (_dir is not null) TempNames.Release(_dir);
             _dir = null;
         }
     }

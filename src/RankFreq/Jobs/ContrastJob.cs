@@ -132,54 +132,25 @@ public static class ContrastJob
         IReadOnlyList<CountGroup> ordered, IReadOnlyList<GroupSpectrum> spectra, ContrastResult result, IReadOnlyList<string> cautions,
         string json, List<string> warnings, CancellationToken ct)
     {
-        string full = Path.GetFullPath(dir);
-        string parent = Path.GetDirectoryName(Path.TrimEndingDirectorySeparator(full))!;
-        string tmp = Path.Combine(parent, $".{Path.GetFileName(Path.TrimEndingDirectorySeparator(full))}.{Guid.NewGuid():N}.tmp");
-        try { Directory.CreateDirectory(tmp); }
-        catch (Exception e) when (e is IOException or UnauthorizedAccessException)
-        { throw new StorageException($"{dir}: cannot create the output folder ({e.Message})", e); }
-        try
-        {
-            var meta = CountTableMetadata.From(counted.Summary, s.RedactBelow);
-            await ContrastTables.WriteGroupedCountsAsync(Path.Combine(tmp, "counts.parquet"), ordered, counted.HasTokenIds, meta, s.Key!.Spec, ct);
-            await ContrastTables.WriteGroupsAsync(Path.Combine(tmp, "groups.parquet"), result, ct);
-            await ContrastTables.WritePairsAsync(Path.Combine(tmp, "pairs.parquet"), result, ct);
-            await AtomicFile.WriteTextAsync(Path.Combine(tmp, "summary.json"), json);
-            var rendered = new[] { Plots.Exponents(result), Plots.RankFrequencyByGroup(spectra), Plots.CcdfByGroup(spectra) };
-            await PlotFiles.WriteAsync(tmp, rendered);
-            if (Plots.Font is null)
-                warnings.Add("no font file found (looked in the fontconfig folders), so PNG plots were skipped; install a font (Debian: " +
-                    "fonts-dejavu-core) to get them. SVG plots and the report are complete.");
-            string title = s.Title ?? (inputs.Count == 1 ? Path.GetFileName(Path.TrimEndingDirectorySeparator(Path.GetFullPath(inputs[0])))
-                : $"{inputs.Count} inputs");
-            await AtomicFile.WriteTextAsync(Path.Combine(tmp, "report.html"), ReportHtml.BuildContrast(title, s.Key!.Spec, counted.Summary, result,
-                cautions, rendered));
-            Publish(tmp, full);
-        }
-        catch
-        {
-            try { if (Directory.Exists(tmp)) Directory.Delete(tmp, true); } catch (IOException) { } catch (UnauthorizedAccessException) { }
-            throw;
-        }
+        // everything is written into a temporary folder that is renamed into place at the end
+        using var folder = OutputFolder.Create(dir);
+        string tmp = folder.Path;
+        var meta = CountTableMetadata.From(counted.Summary, s.RedactBelow);
+        await ContrastTables.WriteGroupedCountsAsync(Path.Combine(tmp, "counts.parquet"), ordered, counted.HasTokenIds, meta, s.Key!.Spec, ct);
+        await ContrastTables.WriteGroupsAsync(Path.Combine(tmp, "groups.parquet"), result, ct);
+        await ContrastTables.WritePairsAsync(Path.Combine(tmp, "pairs.parquet"), result, ct);
+        await AtomicFile.WriteTextAsync(Path.Combine(tmp, "summary.json"), json);
+        var rendered = new[] { Plots.Exponents(result), Plots.RankFrequencyByGroup(spectra), Plots.CcdfByGroup(spectra) };
+        await PlotFiles.WriteAsync(tmp, rendered);
+        if (Plots.Font is null)
+            warnings.Add("no font file found (looked in the fontconfig folders), so PNG plots were skipped; install a font (Debian: " +
+                "fonts-dejavu-core) to get them. SVG plots and the report are complete.");
+        string title = s.Title ?? (inputs.Count == 1 ? Path.GetFileName(Path.TrimEndingDirectorySeparator(Path.GetFullPath(inputs[0])))
+            : $"{inputs.Count} inputs");
+        await AtomicFile.WriteTextAsync(Path.Combine(tmp, "report.html"), ReportHtml.BuildContrast(title, s.Key!.Spec, counted.Summary, result,
+            cautions, rendered));
+        ct.ThrowIfCancellationRequested();
+        folder.Publish();
         return Path.Combine(dir, "report.html");
-    }
-
-    /// <summary>Renames the finished folder into place; into an existing folder, moves each file (each move atomic).</summary>
-    private static void Publish(string tmp, string target)
-    {
-        try
-        {
-            if (!Directory.Exists(target))
-            {
-                Directory.Move(tmp, target);
-                return;
-            }
-            foreach (var f in Directory.GetFiles(tmp)) File.Move(f, Path.Combine(target, Path.GetFileName(f)), overwrite: true);
-            Directory.Delete(tmp, true);
-        }
-        catch (Exception e) when (e is IOException or UnauthorizedAccessException)
-        {
-            throw new StorageException($"{target}: cannot move the results into place ({e.Message})", e);
-        }
     }
 }

@@ -37,11 +37,11 @@ public static class ForecastJob
         string json = JsonText.Write(map);
         var files = new List<string>();
         var warnings = new List<string>();
-        if (s.OutputDirectory is { } dir)
+        if (s.OutputDirectory is not null)
         {
-            try { Directory.CreateDirectory(dir); }
-            catch (Exception e) when (e is IOException or UnauthorizedAccessException)
-            { throw new StorageException($"{dir}: cannot create the output folder ({e.Message})", e); }
+            // written into a temporary folder that is renamed into place at the end
+            using var folder = OutputFolder.Create(s.OutputDirectory);
+            string dir = folder.Path;
             string points = Path.Combine(dir, "forecast.parquet"), fits = Path.Combine(dir, "forecast.fits.parquet");
             await FieldTableFile.WriteAsync(points, "forecast", ForecastFields.Point, forecast.Points, ct);
             await FieldTableFile.WriteAsync(fits, "forecast_fits", ForecastFields.Fit, forecast.Fits, ct);
@@ -62,6 +62,9 @@ public static class ForecastJob
                 }
                 else warnings.Add("no font file found, so the PNG plot was skipped (Debian: fonts-dejavu-core); the SVG is complete.");
             }
+            ct.ThrowIfCancellationRequested();
+            folder.Publish();
+            files = files.Select(folder.Final).ToList();
         }
         return new ForecastJobResult(forecast, description, json, files, warnings);
     }

@@ -22,12 +22,9 @@ public static class ProfileJob
         var lex = Lexicon.Summarize(counted.Spectrum);
         var growth = Lexicon.Growth(counted.Spectrum, counted.Growth);
 
-        string dir = s.OutputDirectory;
-        try { Directory.CreateDirectory(dir); }
-        catch (Exception e) when (e is IOException or UnauthorizedAccessException)
-        {
-            throw new StorageException($"{dir}: cannot create the output folder ({e.Message})", e);
-        }
+        // everything is written into a temporary folder that is renamed into place at the end
+        using var folder = OutputFolder.Create(s.OutputDirectory);
+        string dir = folder.Path;
 
         var sum = counted.Summary;
         var meta = CountTableMetadata.From(sum, s.RedactBelow);
@@ -41,7 +38,9 @@ public static class ProfileJob
             Plots.RankFrequency(counted.Spectrum, fit), Plots.Ccdf(counted.Spectrum, fit), Plots.Spectrum(counted.Spectrum, fit),
             Plots.AlphaBootstrap(fit), Plots.Growth(growth),
         }.OfType<RenderedPlot>().ToArray();
-        var plots = await PlotFiles.WriteAsync(dir, rendered);
+        var plots = (await PlotFiles.WriteAsync(dir, rendered))
+            .Select(p => p with { SvgPath = folder.Final(p.SvgPath), PngPath = p.PngPath is null ? null : folder.Final(p.PngPath) })
+            .ToList();
         if (Plots.Font is null)
         {
             warnings.Add("no font file found (looked in the fontconfig folders), so PNG plots were skipped; "
@@ -78,6 +77,9 @@ public static class ProfileJob
             : Path.GetFileName(Path.TrimEndingDirectorySeparator(Path.GetFullPath(inputs[0]))));
         string reportPath = Path.Combine(dir, "report.html");
         await AtomicFile.WriteTextAsync(reportPath, ReportHtml.Build(title, sum, fit, lex, growth, rendered, s.RedactBelow));
-        return new ProfileResult(sum, fit, lex, growth, plots, reportPath, summaryPath, summaryJson, warnings);
+        ct.ThrowIfCancellationRequested();
+        folder.Publish();
+        return new ProfileResult(sum, fit, lex, growth, plots, folder.Final(reportPath), folder.Final(summaryPath), summaryJson,
+            warnings);
     }
 }

@@ -59,11 +59,11 @@ public static class ShiftJob
         }
 
         var written = new List<string>();
-        if (s.OutputDirectory is { } dir)
+        if (s.OutputDirectory is not null)
         {
-            try { Directory.CreateDirectory(dir); }
-            catch (Exception e) when (e is IOException or UnauthorizedAccessException)
-            { throw new StorageException($"{dir}: cannot create the output folder ({e.Message})", e); }
+            // written into a temporary folder that is renamed into place at the end
+            using var folder = OutputFolder.Create(s.OutputDirectory);
+            string dir = folder.Path;
             async Task Table<T>(string name, string table, IReadOnlyList<Primitives.ResultField<T>> fields, IReadOnlyList<T> rows)
             {
                 string path = Path.Combine(dir, name);
@@ -90,6 +90,9 @@ public static class ShiftJob
             string report = Path.Combine(dir, "report.html");
             await AtomicFile.WriteTextAsync(report, ReportHtml.BuildShift(title, summary, shift, ShiftFindings.Of(shift), rendered));
             written.Add(report);
+            ct.ThrowIfCancellationRequested();
+            folder.Publish();
+            written = written.Select(folder.Final).ToList();
         }
         return new ShiftJobResult(shift, written, warnings);
     }

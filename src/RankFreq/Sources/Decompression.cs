@@ -21,16 +21,32 @@ public static class Decompression
 
     /// <summary>Wraps <paramref name="raw"/> in the decompressor for <paramref name="kind"/>; its faults surface as
     /// <see cref="DecoderFaultException"/>.</summary>
-    public static Stream Open(Stream raw, CompressionKind kind) => kind switch
+    public static Stream Open(Stream raw, CompressionKind kind) => Open(raw, kind, peek: false);
+
+    /// <summary>As <see cref="Open(Stream, CompressionKind)"/>; with <paramref name="peek"/>, <paramref name="raw"/> holds
+    /// only the first bytes of a file, so a decoder that reads a whole block as it starts (bzip2) accepts the cut.</summary>
+    /// <remarks>Some decoders read and check data when they are created (bzip2 decodes its first block): a fault there
+    /// is a <see cref="DecoderFaultException"/> too.</remarks>
+    internal static Stream Open(Stream raw, CompressionKind kind, bool peek)
     {
-        CompressionKind.None => raw,
-        CompressionKind.Gzip => new DecoderGuardStream(new GZipStream(raw, System.IO.Compression.CompressionMode.Decompress)),
-        CompressionKind.Zstd => new DecoderGuardStream(new DecompressionStream(raw)),
-        CompressionKind.Bzip2 => new DecoderGuardStream(BZip2Stream.Create(raw, SharpCompress.Compressors.CompressionMode.Decompress,
-            decompressConcatenated: true, leaveOpen: false)),
-        CompressionKind.Xz => new DecoderGuardStream(new XZStream(raw)),
-        _ => raw,
-    };
+        try
+        {
+            return kind switch
+            {
+                CompressionKind.None => raw,
+                CompressionKind.Gzip => new DecoderGuardStream(new GZipStream(raw, System.IO.Compression.CompressionMode.Decompress)),
+                CompressionKind.Zstd => new DecoderGuardStream(new DecompressionStream(raw)),
+                CompressionKind.Bzip2 => new DecoderGuardStream(BZip2Stream.Create(raw, SharpCompress.Compressors.CompressionMode.Decompress,
+                    decompressConcatenated: true, leaveOpen: false, tolerateTruncatedStream: peek)),
+                CompressionKind.Xz => new DecoderGuardStream(new XZStream(raw)),
+                _ => raw,
+            };
+        }
+        catch (Exception e) when (e is not OperationCanceledException and not DecoderFaultException)
+        {
+            throw new DecoderFaultException(e);
+        }
+    }
 
     /// <summary>File name extensions that mark compression, stripped before guessing the format.</summary>
     public static string StripExtension(string name)

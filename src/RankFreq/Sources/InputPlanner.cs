@@ -111,10 +111,13 @@ public static class InputPlanner
         rawPeek = raw[..n];
         var kind = Decompression.Detect(rawPeek);
         if (kind == CompressionKind.None) return (kind, rawPeek);
-        using var d = Decompression.Open(new PrefixStream(rawPeek, Stream.Null), kind);
         var text = new byte[PeekBytes];
         int m = 0;
-        try { m = ReadFully(d, text); }
+        try
+        {
+            using var d = Decompression.Open(new PrefixStream(rawPeek, Stream.Null), kind, peek: true);
+            m = ReadFully(d, text);
+        }
         catch (DecoderFaultException e) when (e.InnerException is EndOfStreamException) { }
         catch (DecoderFaultException) when (n < PeekBytes) { throw; }
         catch (DecoderFaultException) { /* the peek may end mid-block; the full read reports real corruption */ }

@@ -30,6 +30,11 @@ public static class InputReader
         catch (OperationCanceledException) { throw; }
         catch (UnauthorizedAccessException) { throw new SourceException($"{f.Path}: permission denied"); }
         catch (FileNotFoundException) { throw new SourceException($"{f.Path}: file disappeared while reading"); }
+        catch (DecoderFaultException e) // a decoder that checks its first block as it opens
+        {
+            throw new SourceException($"{f.Path}: corrupt or truncated {f.Compression.ToString().ToLowerInvariant()} data at the start "
+                + $"({e.Message})", e);
+        }
         catch (IOException e) { throw new SourceException($"{f.Path}: cannot read ({e.Message})", e); }
     }
 
@@ -118,7 +123,11 @@ public static class InputReader
     {
         using var fs = File.OpenRead(f.Path);
         ParquetReader reader;
-        try { reader = ParquetReader.CreateAsync(fs, cancellationToken: ct).GetAwaiter().GetResult(); }
+        try
+        {
+            reader = ParquetReader.CreateAsync(fs, cancellationToken: ct).GetAwaiter().GetResult();
+            _ = reader.Schema.GetDataFields(); // the schema is decoded when first asked for: a damaged one fails here
+        }
         catch (Exception e) when (e is not OperationCanceledException)
         {
             throw new SourceException($"{f.Path}: not a readable Parquet file ({e.Message})", e);
@@ -137,10 +146,13 @@ public static class InputReader
             for (int g = 0; g < reader.RowGroupCount; g++)
             {
                 ct.ThrowIfCancellationRequested();
-                using var rg = reader.OpenRowGroupReader(g);
-                var values = new string?[rg.RowCount];
-                rg.ReadAsync(field, values.AsMemory(), null, ct).GetAwaiter().GetResult();
-                var labels = groupField is null ? null : ParquetGroups.Labels(f.Path, rg, groupField, groupKey!, ct);
+                var (values, labels) = ParquetPages.Read(f.Path, g, () =>
+                {
+                    using var rg = reader.OpenRowGroupReader(g);
+                    var values = new string?[rg.RowCount];
+                    rg.ReadAsync(field, values.AsMemory(), null, ct).GetAwaiter().GetResult();
+                    return (values, groupField is null ? null : ParquetGroups.Labels(f.Path, rg, groupField, groupKey!, ct));
+                });
                 for (int i = 0; i < values.Length; i++)
                 {
                     string? v = values[i];

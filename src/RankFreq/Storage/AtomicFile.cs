@@ -1,3 +1,5 @@
+using RankFreq.Primitives;
+
 namespace RankFreq.Storage;
 
 /// <summary>
@@ -12,7 +14,10 @@ public static class AtomicFile
         string full = Path.GetFullPath(path);
         string dir = Path.GetDirectoryName(full)!;
         if (!Directory.Exists(dir)) throw new StorageException($"{path}: folder {dir} does not exist");
-        string tmp = Path.Combine(dir, $".{Path.GetFileName(full)}.{Guid.NewGuid():N}.tmp");
+        // a run killed earlier may have left its temporary here; the next run writing to this folder removes it
+        TempNames.SweepStaleOnce(dir);
+        string tmp = TempNames.Beside(full);
+        TempNames.Hold(tmp);
         try
         {
             await using (var fs = new FileStream(tmp, FileMode.CreateNew, FileAccess.ReadWrite, FileShare.None, 1 << 16))
@@ -21,11 +26,14 @@ public static class AtomicFile
                 await fs.FlushAsync();
             }
             File.Move(tmp, full, overwrite: true);
+            TempNames.Release(tmp);
         }
         catch (Exception e) when (e is UnauthorizedAccessException or IOException)
         {
             TryDelete(tmp);
-            throw new StorageException($"{path}: cannot write ({e.Message})", e);
+            // the system's message names the temporary, which the user never sees
+            string why = e.Message.Replace($" : '{tmp}'", "", StringComparison.Ordinal).Replace(tmp, TempNames.Shown(full), StringComparison.Ordinal);
+            throw new StorageException($"{TempNames.Shown(path)}: cannot write ({why})", e);
         }
         catch
         {
@@ -44,5 +52,6 @@ public static class AtomicFile
     private static void TryDelete(string p)
     {
         try { if (File.Exists(p)) File.Delete(p); } catch (IOException) { } catch (UnauthorizedAccessException) { }
+        TempNames.Release(p);
     }
 }

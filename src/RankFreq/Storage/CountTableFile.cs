@@ -56,7 +56,11 @@ public static class CountTableFile
     {
         if (!File.Exists(path)) throw new StorageException($"{path}: no such file");
         ParquetReader r;
-        try { r = await ParquetReader.CreateAsync(path, cancellationToken: ct); }
+        try
+        {
+            r = await ParquetReader.CreateAsync(path, cancellationToken: ct);
+            _ = r.Schema.GetDataFields(); // the schema is decoded when first asked for: a damaged one fails here
+        }
         catch (Exception e) when (e is not OperationCanceledException)
         {
             throw new StorageException($"{path}: not a Parquet file ({e.Message.Split('\n')[0]})", e);

@@ -2,6 +2,7 @@ using System.Globalization;
 using Parquet;
 using Parquet.Schema;
 using RankFreq.Counting;
+using RankFreq.Sources;
 
 namespace RankFreq.Storage;
 
@@ -32,13 +33,17 @@ public sealed class CountTableReader : IAsyncDisposable, ICountRows
         long rank = 1;
         for (int g = 0; g < _r.RowGroupCount; g++)
         {
-            using var rg = _r.OpenRowGroupReader(g);
-            var tokens = new string?[rg.RowCount];
-            var counts = new long[rg.RowCount];
-            int[]? ids = _id is null ? null : new int[rg.RowCount];
-            rg.ReadAsync(_token, tokens.AsMemory()).AsTask().GetAwaiter().GetResult();
-            rg.ReadAsync<long>(_count, counts.AsMemory()).AsTask().GetAwaiter().GetResult();
-            if (ids is not null) rg.ReadAsync<int>(_id!, ids.AsMemory()).AsTask().GetAwaiter().GetResult();
+            var (tokens, ids, counts) = ParquetPages.Read(Path, g, () =>
+            {
+                using var rg = _r.OpenRowGroupReader(g);
+                var tokens = new string?[rg.RowCount];
+                var counts = new long[rg.RowCount];
+                int[]? ids = _id is null ? null : new int[rg.RowCount];
+                rg.ReadAsync(_token, tokens.AsMemory()).AsTask().GetAwaiter().GetResult();
+                rg.ReadAsync<long>(_count, counts.AsMemory()).AsTask().GetAwaiter().GetResult();
+                if (ids is not null) rg.ReadAsync<int>(_id!, ids.AsMemory()).AsTask().GetAwaiter().GetResult();
+                return (tokens, ids, counts);
+            });
             yield return new CountRowBatch(rank, tokens, ids, counts);
             rank += counts.Length;
         }

@@ -3,6 +3,7 @@ using Parquet;
 using Parquet.Schema;
 using RankFreq.Counting;
 using RankFreq.Fitting;
+using RankFreq.Sources;
 
 namespace RankFreq.Storage;
 
@@ -22,6 +23,18 @@ internal static class EngineTables
 {
     /// <summary>The spectrum of <paramref name="files"/> read as one table, and a description of what was read.</summary>
     public static async Task<(FrequencySpectrum Spectrum, string Description)> LoadAsync(IReadOnlyList<string> files,
+        CancellationToken ct)
+    {
+        try { return await LoadCheckedAsync(files, ct); }
+        catch (OverflowException e)
+        {
+            // counts whose total passes what a 64-bit count holds are bad input, not a bug
+            throw new FitInputException($"{files[0]}: the counts add up to more than {long.MaxValue:N0} tokens, more than a "
+                + "count can hold; the table is damaged or not a table of counts", e);
+        }
+    }
+
+    private static async Task<(FrequencySpectrum Spectrum, string Description)> LoadCheckedAsync(IReadOnlyList<string> files,
         CancellationToken ct)
     {
         var spectrum = new SpectrumBuilder();
@@ -44,18 +57,17 @@ internal static class EngineTables
                     + "fit one group at a time (select its rows, without the group column)");
             for (int g = 0; g < r.RowGroupCount; g++)
             {
-                using var rg = r.OpenRowGroupReader(g);
-                if (count is not null)
+                // a damaged page becomes one line naming the file and row group (Sources.ParquetPages)
+                var (f, t, n) = await ParquetPages.ReadAsync<(long[], long[]?, long)>(path, g, async () =>
                 {
-                    foreach (var c in await ReadPositiveAsync(rg, count, path, rows, ct)) spectrum.Add(c);
-                }
-                else
-                {
-                    var f = await ReadPositiveAsync(rg, freq!, path, rows, ct);
-                    var t = await ReadPositiveAsync(rg, types!, path, rows, ct);
-                    for (int i = 0; i < f.Length; i++) spectrum.Add(f[i], t[i]);
-                }
-                rows += rg.RowCount;
+                    using var rg = r.OpenRowGroupReader(g);
+                    if (count is not null) return (await ReadPositiveAsync(rg, count, path, rows, ct), null, rg.RowCount);
+                    return (await ReadPositiveAsync(rg, freq!, path, rows, ct), await ReadPositiveAsync(rg, types!, path, rows, ct),
+                        rg.RowCount);
+                });
+                if (t is null) foreach (var c in f) spectrum.Add(c);
+                else for (int i = 0; i < f.Length; i++) spectrum.Add(f[i], t[i]);
+                rows += n;
             }
         }
         if (rows == 0) throw new FitInputException($"{files[0]}: the {kind} table has no rows");
@@ -85,7 +97,12 @@ internal static class EngineTables
 
     private static async Task<ParquetReader> OpenAsync(string path, CancellationToken ct)
     {
-        try { return await ParquetReader.CreateAsync(path, cancellationToken: ct); }
+        try
+        {
+            var r = await ParquetReader.CreateAsync(path, cancellationToken: ct);
+            _ = r.Schema.GetDataFields(); // the schema is decoded when first asked for: a damaged one fails here
+            return r;
+        }
         catch (Exception e) when (e is not OperationCanceledException)
         {
             throw new FitInputException($"{path}: not a readable Parquet file ({e.Message.Split('\n')[0]})", e);

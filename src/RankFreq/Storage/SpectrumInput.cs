@@ -148,7 +148,18 @@ public static class SpectrumInput
             notes.Add($"{name}: {repeated:N0} token line{(repeated == 1 ? " repeats" : "s repeat")} an earlier token "
                 + $"(first: {firstRepeat}); their counts were added");
         pairs.AddRange(byToken.Values.Select(v => (v.Count, 1L)));
-        return (FrequencySpectrum.FromPairs(pairs), tokens ? "token list" : "count list", notes);
+        return (Spectrum(pairs, name), tokens ? "token list" : "count list", notes);
+    }
+
+    /// <summary>Counts whose total passes what a 64-bit count holds are bad input, not a bug.</summary>
+    private static FrequencySpectrum Spectrum(List<(long, long)> pairs, string name)
+    {
+        try { return FrequencySpectrum.FromPairs(pairs); }
+        catch (OverflowException e)
+        {
+            throw new FitInputException($"{name}: the counts add up to more than {long.MaxValue:N0} tokens, more than a count can hold; "
+                + "the file is damaged or not a list of counts", e);
+        }
     }
 
     private static bool IsInteger(string s) => long.TryParse(s, NumberStyles.AllowLeadingSign, CultureInfo.InvariantCulture, out _);

@@ -44,7 +44,7 @@ public class GroupedCountTests
             Assert.Equal(alone.Summary.Records, g.Documents);
         }
         Assert.Equal(lines.Count, grouped.Summary.Records);
-        Assert.Empty(Directory.GetDirectories(d.Path, "rankfreq-spill-*"));
+        Assert.Empty(Directory.GetDirectories(d.Path, ".spill.rankfreq-tmp.*"));
     }
 
     [Fact]

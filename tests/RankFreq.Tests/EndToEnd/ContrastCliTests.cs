@@ -64,7 +64,7 @@ public class ContrastCliTests
         foreach (var f in new[] { "groups.parquet", "pairs.parquet", "counts.parquet", "summary.json", "report.html", "exponents.svg",
             "rank-frequency-groups.svg", "ccdf-groups.svg" })
             Assert.True(File.Exists(Path.Combine(dir, f)), f);
-        Assert.Empty(Directory.GetDirectories(d.Path, ".*.tmp"));
+        Assert.Empty(Directory.GetDirectories(d.Path, ".*.rankfreq-tmp.*"));
         var j = Json(File.ReadAllText(Path.Combine(dir, "summary.json")));
         int n = j.GetProperty("groups").GetArrayLength();
         Assert.Equal(n * (n - 1) / 2, j.GetProperty("pairs").GetArrayLength());

@@ -1,0 +1,60 @@
+using System.Runtime.InteropServices;
+using RankFreq.Primitives;
+
+namespace RankFreq.Cli;
+
+/// <summary>
+/// SIGINT and SIGTERM stop a verb: the first cancels its work, which removes its temporaries and writes nothing under
+/// a final name; the exit code is 130 for SIGINT and 143 for SIGTERM (128 + the signal, as shells report them).
+/// </summary>
+/// <remarks>
+/// Work that does not stop within <see cref="Grace"/> (a read blocked on a pipe, a step that does not look at the
+/// token) is not waited for: the temporaries the process holds are removed and it exits with the same code. A second
+/// signal ends the process at once the same way.
+/// </remarks>
+internal static class Signals
+{
+    /// <summary>How long cancelled work may take to unwind before the process exits without it.</summary>
+    public static readonly TimeSpan Grace = TimeSpan.FromMilliseconds(600);
+
+    /// <summary>Exit code for SIGTERM (128 + 15).</summary>
+    public const int Terminated = 143;
+
+    /// <summary>Runs the command line with the process's SIGINT and SIGTERM turned into cancellation.</summary>
+    public static async Task<int> RunAsync(string[] args, TextWriter stdout, TextWriter stderr)
+    {
+        using var cts = new CancellationTokenSource();
+        var signalled = new TaskCompletionSource<int>(TaskCreationOptions.RunContinuationsAsynchronously);
+        int received = 0;
+        void Handle(PosixSignalContext c)
+        {
+            c.Cancel = true; // the process ends when the work has unwound, not in the middle of a rename
+            int code = c.Signal == PosixSignal.SIGTERM ? Terminated : CliApp.Interrupted;
+            if (Interlocked.Increment(ref received) > 1) Exit(stderr, code); // a second signal: no more waiting
+            signalled.TrySetResult(code);
+            cts.Cancel();
+        }
+        using var sigInt = PosixSignalRegistration.Create(PosixSignal.SIGINT, Handle);
+        using var sigTerm = PosixSignalRegistration.Create(PosixSignal.SIGTERM, Handle);
+
+        var run = CliApp.RunAsync(args, stdout, stderr, cts.Token);
+        if (await Task.WhenAny(run, signalled.Task) != run)
+        {
+            int signalCode = await signalled.Task;
+            if (await Task.WhenAny(run, Task.Delay(Grace)) != run) Exit(stderr, signalCode);
+            int code = await run;
+            // the verb reports cancellation as 130; SIGTERM has its own code
+            return code == CliApp.Interrupted ? signalCode : code;
+        }
+        return await run;
+    }
+
+    /// <summary>Ends the process now: removes the temporaries it holds, says so, exits with <paramref name="code"/>.</summary>
+    private static void Exit(TextWriter stderr, int code)
+    {
+        TempNames.RemoveHeld();
+        try { stderr.WriteLine("rankfreq: interrupted; no output written"); stderr.Flush(); }
+        catch (IOException) { }
+        Environment.Exit(code);
+    }
+}
