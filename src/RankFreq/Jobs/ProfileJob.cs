@@ -21,6 +21,7 @@ public static class ProfileJob
         var fit = TailFitter.Fit(counted.Spectrum, s.Fit, fitProgress, ct);
         var lex = Lexicon.Summarize(counted.Spectrum);
         var growth = Lexicon.Growth(counted.Spectrum, counted.Growth);
+        var forecast = Forecaster.Run(counted.Spectrum, ProfileForecast.Options(s.Fit), ct);
 
         // everything is written into a temporary folder that is renamed into place at the end
         using var folder = OutputFolder.Create(s.OutputDirectory);
@@ -32,11 +33,12 @@ public static class ProfileJob
         await TableFiles.WriteSpectrumAsync(Path.Combine(dir, "spectrum.parquet"), counted.Spectrum, ct);
         await FitTableFile.WriteAsync(Path.Combine(dir, "fit.parquet"), [("all", fit)], ct);
         await TableFiles.WriteGrowthAsync(Path.Combine(dir, "growth.parquet"), growth, ct);
+        await FieldTableFile.WriteAsync(Path.Combine(dir, "forecast.parquet"), "forecast", ForecastFields.Point, forecast.Points, ct);
 
         var rendered = new[]
         {
             Plots.RankFrequency(counted.Spectrum, fit), Plots.Ccdf(counted.Spectrum, fit), Plots.Spectrum(counted.Spectrum, fit),
-            Plots.AlphaBootstrap(fit), Plots.Growth(growth),
+            Plots.AlphaBootstrap(fit), Plots.Growth(growth), forecast.Points.Count > 0 ? ForecastPlot.Growth(forecast, growth) : null,
         }.OfType<RenderedPlot>().ToArray();
         var plots = (await PlotFiles.WriteAsync(dir, rendered))
             .Select(p => p with { SvgPath = folder.Final(p.SvgPath), PngPath = p.PngPath is null ? null : folder.Final(p.PngPath) })
@@ -54,6 +56,7 @@ public static class ProfileJob
             ResultFields.ToMap(LexicalFields.Summary, lex), ResultFields.ToMap(LexicalFields.Growth, growth),
         })
             foreach (var kv in part) summary[kv.Key] = kv.Value;
+        summary["forecast"] = ProfileForecast.Summary(forecast);
         summary["settings"] = new Dictionary<string, object?>
         {
             ["tokenizer"] = s.Count.Tokenizer,
@@ -76,7 +79,8 @@ public static class ProfileJob
         string title = s.Title ?? (inputs.Count != 1 ? $"{inputs.Count} inputs" : inputs[0] == "-" ? "standard input"
             : Path.GetFileName(Path.TrimEndingDirectorySeparator(Path.GetFullPath(inputs[0]))));
         string reportPath = Path.Combine(dir, "report.html");
-        await AtomicFile.WriteTextAsync(reportPath, ReportHtml.Build(title, sum, fit, lex, growth, rendered, s.RedactBelow));
+        await AtomicFile.WriteTextAsync(reportPath, ReportHtml.Build(title, sum, fit, lex, growth, rendered, s.RedactBelow,
+            forecast));
         ct.ThrowIfCancellationRequested();
         folder.Publish();
         return new ProfileResult(sum, fit, lex, growth, plots, folder.Final(reportPath), folder.Final(summaryPath), summaryJson,

@@ -21,4 +21,9 @@ public sealed record ForecastResult(double Tokens, double Types, double Hapax, I
     /// <summary>The message of that failure (empty when ok).</summary>
     public string Message => Chosen is not null ? ""
         : Fits.FirstOrDefault(f => Options.Family == "auto" || f.Family == Options.Family)?.Message ?? "";
+
+    /// <summary>The point at each target size of the options, in their order (targets with no point are left out).</summary>
+    public IReadOnlyList<(ForecastTarget Target, ForecastPoint Point)> AtTargets() =>
+        [.. Options.Targets.Select(t => (t, Points.FirstOrDefault(p => p.Tokens == Math.Round(t.TokensFor(Tokens)))))
+            .Where(x => x.Item2 is not null).Select(x => (x.t, x.Item2!))];
 }

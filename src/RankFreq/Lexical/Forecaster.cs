@@ -79,6 +79,10 @@ public static class Forecaster
             types[r] = t; hapax[r] = hx; cover[r] = c;
         });
         var ok = Enumerable.Range(0, o.Reps).Where(r => types[r] is not null).ToList();
+        // the exact in-sample expectation costs a pass over the spectrum per point: spread the points over the threads
+        var exact = new double[p];
+        Parallel.For(0, p, new ParallelOptions { MaxDegreeOfParallelism = o.Threads > 0 ? o.Threads : -1, CancellationToken = ct },
+            i => exact[i] = tokens[i] <= n ? Lexicon.ExpectedTypes(s, (long)Math.Round(tokens[i])) : double.NaN);
         var fitted = fits.Where(f => f.Model is not null).Select(f => f.Model!).ToList();
         var points = new ForecastPoint[p];
         for (int i = 0; i < p; i++)
@@ -91,7 +95,7 @@ public static class Forecaster
             var (cl, ch) = Band(ok.Select(r => cover[r][i]));
             string region = x < n ? "interpolation" : x == n ? "sample" : "extrapolation";
             points[i] = new ForecastPoint(x, region, ev, tl, th, Math.Sqrt(Math.Max(0, model.ExpectedTypes(2 * x) - ev)),
-                x <= n ? Lexicon.ExpectedTypes(s, (long)Math.Round(x)) : double.NaN, es[1], hl, hh, es[2],
+                exact[i], es[1], hl, hh, es[2],
                 model.CoverageTypes(o.Coverage, x), cl, ch, fitted.Min(f => f.ExpectedTypes(x)), fitted.Max(f => f.ExpectedTypes(x)));
         }
         return new ForecastResult(s.TokenCount, s.TypeCount, v1, fits, chosen, reason, points, o, ok.Count, Cautions);

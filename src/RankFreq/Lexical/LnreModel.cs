@@ -74,7 +74,7 @@ public abstract record LnreModel
     public double CoverageTypes(double q, double n)
     {
         double ev = ExpectedTypes(n), budget = (1 - q) * n;
-        foreach (int maxM in new[] { 256, 4096, 65536 })
+        foreach (int maxM in new[] { 16, 256, 4096, 65536 })
         {
             var e = ExpectedSpectrum(n, maxM);
             double cumTokens = 0, cumTypes = 0;

@@ -17,7 +17,7 @@ public static partial class ReportHtml
 
     /// <summary>Builds the report.</summary>
     public static string Build(string title, CountSummary c, TailFitResult fit, LexicalSummary lex, GrowthAnalysis g,
-        IReadOnlyList<RenderedPlot> plots, long redactBelow)
+        IReadOnlyList<RenderedPlot> plots, long redactBelow, ForecastResult? forecast = null)
     {
         var pl = fit.PowerLaw;
         bool fitted = pl.Status == FitStatus.Ok;
@@ -58,7 +58,7 @@ public static partial class ReportHtml
         }
         else sb.Append(H(pl.Message));
         sb.Append("</p>");
-        Figures(sb, plots.Where(p => p.Name != "growth"));
+        Figures(sb, plots.Where(p => p.Name is not ("growth" or "forecast")));
         sb.Append("</section>");
 
         if (fit.Alternatives.Count > 0)
@@ -77,6 +77,7 @@ public static partial class ReportHtml
         sb.Append($"</tbody></table><p class=\"note\">Heaps' law: {H(g.HeapsMethod)}.</p>");
         Figures(sb, plots.Where(p => p.Name == "growth"));
         sb.Append("</section>");
+        if (forecast is not null) ForecastSection(sb, forecast, plots);
 
         sb.Append("<section class=\"caution\" id=\"reading\"><h2>Reading these results</h2><ul>");
         foreach (var caution in Cautions.For(redactBelow)) sb.Append($"<li>{H(caution)}</li>");

@@ -1,3 +1,4 @@
+using MathNet.Numerics;
 using System.Numerics;
 using RankFreq.Counting;
 using RankFreq.Lexical;
@@ -41,6 +42,27 @@ public class LexicalTests
             Assert.Equal(exact, Lexicon.ExpectedTypes(s, m), 9);
         }
         Assert.Equal(s.TypeCount, Lexicon.ExpectedTypes(s, n), 9);
+    }
+
+    [Fact]
+    public void ExpectedGrowthMatchesTheHypergeometricDistributionAcrossRunsAndGaps()
+    {
+        // a spectrum with a run of consecutive values (summed step by step) and values far apart (recomputed from
+        // ln Γ), against the probability of drawing none of a type's f tokens, C(N − f, M)/C(N, M), from
+        // MathNet.Numerics 5.0.0's ln C (SpecialFunctions.BinomialLn)
+        var pairs = new List<(long, long)>();
+        for (long f = 1; f <= 300; f++) pairs.Add((f, Math.Max(1, 4000 / (f * f))));
+        foreach (long f in new long[] { 400, 1000, 5000, 20_000, 90_000 }) pairs.Add((f, 1));
+        var s = FrequencySpectrum.FromPairs(pairs);
+        int n = (int)s.TokenCount;
+        foreach (int m in new[] { 10, n / 1000, n / 50, n / 3, n - 5000, n - 1 })
+        {
+            double want = 0;
+            for (int i = 0; i < s.Values.Length; i++)
+                want += s.Types[i] * -double.ExpM1(SpecialFunctions.BinomialLn(n - (int)s.Values[i], m) - SpecialFunctions.BinomialLn(n, m));
+            // both subtract the expected missing types from V, so they agree to a fraction of V, not of the result
+            Assert.True(Math.Abs(Lexicon.ExpectedTypes(s, m) - want) <= 1e-9 * s.TypeCount, $"M = {m}: {Lexicon.ExpectedTypes(s, m):R} vs {want:R}");
+        }
     }
 
     [Fact]

@@ -197,6 +197,9 @@ public class LnreModelTests
     [InlineData("hapax", "all_hapax")]
     [InlineData("complete", "no_hapax")]
     [InlineData("short", "too_few_spectrum_elements")]
+    [InlineData("empty", "too_few_types")]
+    [InlineData("one type", "too_few_types")]
+    [InlineData("one hapax", "too_few_types")]
     public void DegenerateSpectraGiveAStatusAndNoNumbers(string kind, string status)
     {
         var s = kind switch
@@ -204,6 +207,9 @@ public class LnreModelTests
             "tiny" => FrequencySpectrum.FromCounts([5, 3, 1, 1, 2]),
             "hapax" => FrequencySpectrum.FromPairs([(1L, 5000L)]),
             "complete" => FrequencySpectrum.FromPairs([(2L, 300L), (3L, 100L), (9L, 20L)]),
+            "empty" => FrequencySpectrum.FromPairs([]),
+            "one type" => FrequencySpectrum.FromPairs([(100_000L, 1L)]),
+            "one hapax" => FrequencySpectrum.FromPairs([(1L, 1L)]),
             _ => FrequencySpectrum.FromPairs([(1L, 400L), (2L, 3L), (3L, 1L), (50L, 100L)]),
         };
         var r = Forecaster.Run(s, new ForecastOptions([new ForecastTarget(10, true)], Reps: 10));

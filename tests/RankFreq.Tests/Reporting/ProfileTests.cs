@@ -8,7 +8,8 @@ namespace RankFreq.Tests.Reporting;
 public class ProfileTests
 {
     private static readonly string[] SummaryKeys = ["tokens", "types", "alpha", "alpha_lo", "alpha_hi", "xmin", "n_tail", "ks_distance", "gof_p", "zipf_s",
-        "heaps_beta", "heaps_k", "hapax", "dis", "good_turing_unseen", "chao1", "entropy_bits", "alternatives", "settings", "seed", "inputs"];
+        "heaps_beta", "heaps_k", "hapax", "dis", "good_turing_unseen", "chao1", "entropy_bits", "alternatives", "settings", "seed", "inputs",
+        "forecast"];
 
     [CorpusFact]
     public void ProfileOfTheAddressesEndToEnd()
@@ -18,7 +19,7 @@ public class ProfileTests
         Assert.True(code == 0, e);
         Assert.Contains("report:", o);
         foreach (var f in new[] { "counts.parquet", "spectrum.parquet", "fit.parquet", "fit.alternatives.parquet", "growth.parquet", "summary.json", "report.html",
-                     "rank-frequency.svg", "ccdf.svg", "spectrum.svg", "growth.svg" })
+                     "rank-frequency.svg", "ccdf.svg", "spectrum.svg", "growth.svg", "forecast.svg", "forecast.parquet" })
             Assert.True(File.Exists(Path.Combine(d["out"], f)), f);
         using var j = JsonDocument.Parse(File.ReadAllText(Path.Combine(d["out"], "summary.json")));
         foreach (var k in SummaryKeys) Assert.True(j.RootElement.TryGetProperty(k, out _), k);

@@ -72,11 +72,17 @@ public class ReportBrowserTests
         WriteGeneratedText(d["generated.txt"]);
         var (code, _, e) = Cli.Run("profile", d["generated.txt"], "-o", d["out"], "--reps", "100", "--ci-reps", "100", "-q");
         Assert.True(code == 0, e);
-        using var j = Check(Path.Combine(d["out"], "report.html"));
+        string report = Path.Combine(d["out"], "report.html");
+        // the forecast section is there, with its plot inlined, so the browser checks it with the rest
+        string html = File.ReadAllText(report);
+        Assert.Contains("<section id=\"forecast\"><h2>Vocabulary ahead</h2>", html);
+        Assert.Contains("<figcaption>Vocabulary growth: in-sample expectation, forecast and its 95% interval</figcaption>", html);
+        using var j = Check(report);
         foreach (var w in new[] { "1280", "390" })
         {
             var r = j.RootElement.GetProperty("widths").GetProperty(w);
-            Assert.Equal(5, r.GetProperty("figures").GetInt32()); // rank–frequency, CCDF, spectrum, bootstrap α, growth
+            // rank–frequency, CCDF, spectrum, bootstrap α, growth, forecast
+            Assert.Equal(6, r.GetProperty("figures").GetInt32());
             Assert.True(r.GetProperty("checked").GetInt32() > 100, "few text elements checked");
             Assert.True(r.GetProperty("scrollWidth").GetInt32() <= r.GetProperty("viewport").GetInt32());
         }

@@ -79,5 +79,6 @@ public class ReportContentTests
         Assert.Contains("to N = 13", html);
         Assert.Contains("not run: there is no power-law fit to test", html);
         Assert.DoesNotContain("<strong>power law", html); // no verdict without a fit
+        Assert.Contains("No forecast: <code>too_few_types</code>", html); // a status and a message, no numbers
     }
 }
