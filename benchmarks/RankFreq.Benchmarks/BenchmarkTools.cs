@@ -13,7 +13,11 @@ internal static class BenchmarkTools
     public static int Run(string[] args)
     {
         if (args is ["make-spectrum", var path]) return MakeSpectrum(path);
+        if (args is ["make-highcard", .. var rest]) return HighCardinalityText.Run(rest);
+        if (args is ["table-hash", var table]) return TableHash.Run(table);
         Console.Error.WriteLine(Usage);
+        Console.Error.WriteLine("       RankFreq.Benchmarks " + HighCardinalityText.Usage);
+        Console.Error.WriteLine("       RankFreq.Benchmarks " + TableHash.Usage);
         return 2;
     }
 

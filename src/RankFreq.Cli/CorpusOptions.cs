@@ -35,7 +35,7 @@ internal sealed class CorpusOptions
     public readonly Option<int> Threads = WholeNumber.Option<int>("--threads", 0, "Worker threads (0 or left out: all cores)");
     public readonly Option<string?> Memory = new("--memory")
     {
-        Description = "Memory for count tables before spilling to disk (default: a quarter of RAM), e.g. 2G",
+        Description = "Memory for counting before spilling to disk (default: a quarter of RAM); peak use stays within it plus ~200 MB, e.g. 2G",
     };
     public readonly Option<string?> Shard = new("--shard") { Description = "Count only part K of N of the sorted input files, as K/N (shards split by file)" };
     public readonly Option<long> RedactBelow = WholeNumber.Option<long>("--redact-below", 0,

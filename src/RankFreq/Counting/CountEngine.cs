@@ -199,6 +199,7 @@ public static partial class CountEngine
             if (groupSpill is not null) Groups = new Dictionary<string, GroupPart>(StringComparer.Ordinal);
             (IdCounts, IdFirst) = NewIdArrays(tok);
             _session = tok.CreateSession(this);
+            Table.GrowthLimit = budget;
         }
 
         private static (long[]?, long[]?) NewIdArrays(ITokenizer tok)
@@ -240,6 +241,7 @@ public static partial class CountEngine
             {
                 var (counts, first) = NewIdArrays(_tok);
                 Groups[label] = g = new GroupPart(label, _groupSpill!(label), counts, first);
+                g.Table.GrowthLimit = _budget;
             }
             g.Documents++;
             _group = g;
@@ -251,12 +253,13 @@ public static partial class CountEngine
         {
             if (Groups is null)
             {
-                if (Table.MemoryBytes > _budget) _spill.Spill(Table);
+                if (Table.OverBudget(_budget)) _spill.Spill(Table);
                 return;
             }
-            long total = 0;
-            foreach (var g in Groups.Values) total += g.Table.MemoryBytes;
-            if (total <= _budget) return;
+            long total = 0, keys = 0;
+            foreach (var g in Groups.Values) { total += g.Table.MemoryBytes; keys += g.Table.Count; }
+            // as TokenTable.OverBudget: empty tables' own blocks may pass a tiny budget; runs of a few keys would not help
+            if ((total <= _budget || keys < 2048) && !Table.OverLimit) return;
             foreach (var g in Groups.Values)
                 if (g.Table.Count > 0) { g.Spill.Spill(g.Table); GroupRuns++; }
         }
@@ -266,7 +269,8 @@ public static partial class CountEngine
         public void AddToken(ReadOnlySpan<byte> utf8)
         {
             Table.Add(utf8, 1, KeyPacking.PackPosition(_unit, _pos));
-            if ((++_pos & 0xFFFF) == 0) CheckMemory();
+            // the table says when it held back a growth to stay under the budget: spill before memory doubles
+            if ((++_pos & 0xFFFF) == 0 || Table.OverLimit) CheckMemory();
         }
 
         public void AddPackedTokens(ReadOnlySpan<PackedToken> tokens)
@@ -275,7 +279,7 @@ public static partial class CountEngine
             long before = _pos;
             _pos += tokens.Length;
             // memory is looked at every 65,536 tokens, as in AddToken: a run per batch would flood the spill folder
-            if ((before >> 16) != (_pos >> 16)) CheckMemory();
+            if ((before >> 16) != (_pos >> 16) || Table.OverLimit) CheckMemory();
         }
 
         public void AddId(int id) => AddIds(new ReadOnlySpan<int>(in id));

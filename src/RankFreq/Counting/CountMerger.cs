@@ -17,6 +17,7 @@ public sealed class CountMerger : IDisposable
     {
         _budget = memoryBytes > 0 ? memoryBytes : new CountSettings().EffectiveMemory;
         _spill = new SpillSet(tempDirectory);
+        _table.GrowthLimit = _budget;
     }
 
     /// <summary>Spill runs written so far.</summary>
@@ -26,7 +27,7 @@ public sealed class CountMerger : IDisposable
     public void Add(ReadOnlySpan<byte> utf8, long count, int id = -1)
     {
         _table.Add(utf8, count, 0, id);
-        if (_table.MemoryBytes > _budget) _spill.Spill(_table);
+        if (_table.OverBudget(_budget)) _spill.Spill(_table);
     }
 
     /// <summary>The merged rows in rank order and their spectrum; call once, after the last <see cref="Add"/>.</summary>

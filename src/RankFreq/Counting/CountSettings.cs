@@ -6,7 +6,10 @@ namespace RankFreq.Counting;
 /// <param name="Tokenizer">Tokenizer spec.</param>
 /// <param name="Source">How inputs are read.</param>
 /// <param name="Threads">Worker threads (0: all cores).</param>
-/// <param name="MemoryBytes">Memory budget for count tables before spilling to disk (0: a quarter of physical memory).</param>
+/// <param name="MemoryBytes">Memory budget for counting before spilling to disk (0: a quarter of the memory available to the
+/// process). Tables spill before a growth would pass it, ranking falls back to runs when it would not fit, and rows
+/// are read back in batches sized to it, so peak resident memory stays within it plus the runtime's fixed
+/// overhead (measured: under 200 MB; benchmarks/README.md).</param>
 /// <param name="ShardIndex">1-based shard to count, with <paramref name="ShardCount"/>; 0 counts everything.</param>
 /// <param name="ShardCount">Number of shards.</param>
 /// <param name="TempDirectory">Where spill runs go (default: the system temporary folder).</param>

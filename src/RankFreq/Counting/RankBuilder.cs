@@ -3,12 +3,18 @@ using System.Text;
 namespace RankFreq.Counting;
 
 /// <summary>Turns worker tables (and spill runs) into the rank table, the spectrum and the growth histogram.</summary>
+/// <remarks>
+/// Ranking in memory needs the merged table, its sort and one string per type at once; when that would pass the
+/// budget (<see cref="InMemoryBytes"/>) the tables are spilled and ranked from runs instead, so the budget holds on
+/// this path too. The rank-ordered runs of the second phase are cut from a table under the same growth limit as
+/// counting, and rows are read back in batches sized to the budget.
+/// </remarks>
 internal static class RankBuilder
 {
     public static (ICountRows Rows, FrequencySpectrum Spectrum) Build(List<TokenTable> tables, SpillSet spill, long budget,
         GrowthHistogram growth, bool withIds = false)
     {
-        if (spill.Phase1.Count == 0)
+        if (spill.Phase1.Count == 0 && InMemoryBytes(tables) <= budget)
         {
             var all = tables.OrderByDescending(t => t.Count).ToList();
             var main = all[0];
@@ -40,18 +46,19 @@ internal static class RankBuilder
         foreach (var t in tables) spill.Spill(t);
         var spectrum = new SpectrumBuilder();
         var phase2 = new List<string>();
-        var buffer = new List<RunRecord>();
-        long bufBytes = 0;
+        using var buffer = new TokenTable { GrowthLimit = budget };
         void Flush()
         {
             if (buffer.Count == 0) return;
-            buffer.Sort(RunMerge.ByRank);
             string path = spill.NewPath();
             using (var w = new RunWriter(path))
-                foreach (var r in buffer) w.Write(r.Key, r.Count, r.First, r.Id);
+                foreach (int i in buffer.IndicesByRank())
+                {
+                    ref readonly var e = ref buffer.Entries[i];
+                    w.Write(buffer.Key(e), e.Count, e.First, e.Id);
+                }
             phase2.Add(path);
             buffer.Clear();
-            bufBytes = 0;
         }
         RunRecord? cur = null;
         foreach (var rec in RunMerge.Merge(spill.Phase1.ToList(), RunMerge.ByKey, spill.NewPath))
@@ -67,20 +74,39 @@ internal static class RankBuilder
         if (cur is not null) Emit(cur);
         Flush();
         foreach (var p in spill.Phase1) File.Delete(p);
-        return (new SpilledRows(phase2, spill, withIds), spectrum.Build());
+        return (new SpilledRows(phase2, spill, withIds, BatchRows(budget)), spectrum.Build());
 
         void Emit(RunRecord r)
         {
             spectrum.Add(r.Count);
             growth.Add(r.First);
-            buffer.Add(r);
-            bufBytes += r.Key.Length + 96;
-            if (bufBytes > budget) Flush();
+            buffer.Add(r.Key, r.Count, r.First, r.Id);
+            if (buffer.OverBudget(budget - buffer.SortBytes)) Flush();
         }
     }
 
+    /// <summary>
+    /// Bytes that ranking <paramref name="tables"/> in memory may hold at its peak: the tables, the merged table
+    /// growing to at most their summed types (slots at 1/4 to 1/2 load side by side with the doubled array, and
+    /// entries), the sort, and per type a managed string (about 32 bytes plus two per key byte) and its count.
+    /// </summary>
+    internal static long InMemoryBytes(IReadOnlyList<TokenTable> tables)
+    {
+        long held = 0, types = 0, keyBytes = 0;
+        foreach (var t in tables)
+        {
+            held += t.MemoryBytes;
+            types += t.Count;
+            foreach (ref readonly var e in t.Entries) keyBytes += e.Len;
+        }
+        return held + types * (4 * 32 + 32 + 44 + 32 + 8) + 2 * keyBytes;
+    }
+
+    /// <summary>Rows per batch read back from rank-ordered runs: about 256 bytes of batch per row within the budget.</summary>
+    internal static int BatchRows(long budget) => (int)Math.Clamp(budget / 256, 1 << 12, 1 << 20);
+
     /// <summary>Rank-ordered rows merged from rank-sorted runs on disk; can be read once; dispose removes the runs.</summary>
-    private sealed class SpilledRows(List<string> runs, SpillSet spill, bool withIds) : ICountRows
+    private sealed class SpilledRows(List<string> runs, SpillSet spill, bool withIds, int maxBatch) : ICountRows
     {
         private bool _read;
         public bool Repeatable => false;
@@ -89,6 +115,7 @@ internal static class RankBuilder
         {
             if (_read) throw new InvalidOperationException("spilled rows can be read once");
             _read = true;
+            batchSize = Math.Min(batchSize, maxBatch);
             long rank = 1;
             var tokens = new List<string?>(batchSize);
             var counts = new List<long>(batchSize);
@@ -103,6 +130,9 @@ internal static class RankBuilder
                     yield return new CountRowBatch(rank, tokens.ToArray(), withIds ? ids.ToArray() : null, counts.ToArray());
                     rank += counts.Count;
                     tokens.Clear(); counts.Clear(); ids.Clear();
+                    // the batch just written is garbage now; collect it before the next one, so batches of a
+                    // bounded-memory run do not pile up in the older generations until the collector gets to them
+                    GC.Collect();
                 }
             }
             if (counts.Count > 0) yield return new CountRowBatch(rank, tokens.ToArray(), withIds ? ids.ToArray() : null, counts.ToArray());

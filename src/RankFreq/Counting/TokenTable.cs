@@ -20,7 +20,7 @@ namespace RankFreq.Counting;
 /// <see cref="AddShort"/> sets a type's first position only when it inserts it: callers feed one table positions in
 /// increasing order (a worker meets its work units in corpus order), so a later occurrence never lowers it.
 /// </remarks>
-internal sealed class TokenTable
+internal sealed unsafe class TokenTable : IDisposable
 {
     internal struct Slot
     {
@@ -39,23 +39,100 @@ internal sealed class TokenTable
         public long First;  // KeyPacking.PackPosition(unit, offset)
     }
 
+    // slots, entries and arena pages live in native blocks (NativeBlock): freed at once on Clear, so a spilled
+    // table leaves no managed garbage behind, and the entries grow in place
     private const int PageBytes = 1 << 20;
+    private const int FirstPageBytes = 1 << 16; // pages double up to PageBytes, so small tables stay small
     private const int InitialSlots = 1 << 12;
-    private byte[][] _pages = new byte[16][];
+    private nint[] _pages = new nint[16];
+    private int[] _pageSizes = new int[16];
     private int _pageCount;
-    private byte[] _page = [];
-    private int _pagePos = PageBytes;
-    private Slot[] _slots = new Slot[InitialSlots];
-    private Entry[] _entries = new Entry[InitialSlots / 2];
+    private byte* _page;
+    private int _pageSize;
+    private int _pagePos;
+    private Slot* _slots;
+    private int _slotCount;
+    private Entry* _entries;
+    private int _entryCap;
     private int _count;
     private long _arenaBytes;
     private bool _dirty;
+
+    /// <summary>An empty table.</summary>
+    public TokenTable() => Init();
+
+    /// <summary>Frees the native blocks of a table that was not disposed.</summary>
+    ~TokenTable() => FreeAll();
+
+    private void Init()
+    {
+        _slotCount = InitialSlots;
+        _slots = NewSlots(InitialSlots);
+        _entryCap = InitialSlots / 2;
+        _entries = (Entry*)NativeBlock.Alloc((long)_entryCap * sizeof(Entry));
+        _pagePos = 0;
+        _pageSize = 0;
+        _page = null;
+    }
+
+    private static Slot* NewSlots(int n)
+    {
+        var p = (Slot*)NativeBlock.Alloc((long)n * sizeof(Slot));
+        // Write every page before probing it: a fresh page that is read first maps the shared zero page, and the
+        // later write then costs a copy-on-write fault with a TLB flush on every core.
+        new Span<Slot>(p, n).Clear();
+        return p;
+    }
+
+    private void FreeAll()
+    {
+        NativeBlock.Free(_slots, (long)_slotCount * sizeof(Slot));
+        NativeBlock.Free(_entries, (long)_entryCap * sizeof(Entry));
+        for (int i = 0; i < _pageCount; i++) NativeBlock.Free((void*)_pages[i], _pageSizes[i]);
+        _slots = null;
+        _entries = null;
+        _pageCount = 0;
+        _arenaBytes = 0;
+        _slotCount = 0;
+        _entryCap = 0;
+        _count = 0;
+        _dirty = false;
+    }
+
+    /// <summary>Frees the table's memory; the table must not be used afterwards.</summary>
+    public void Dispose()
+    {
+        FreeAll();
+        GC.SuppressFinalize(this);
+    }
 
     /// <summary>Number of distinct keys.</summary>
     public int Count => _count;
 
     /// <summary>Approximate bytes held (slots, entries and arena).</summary>
-    public long MemoryBytes => (long)_slots.Length * 32 + (long)_entries.Length * 32 + _arenaBytes;
+    public long MemoryBytes => (long)_slotCount * sizeof(Slot) + (long)_entryCap * sizeof(Entry) + _arenaBytes;
+
+    /// <summary>
+    /// Bytes the table would hold at the peak of its next growth (the old and the doubled slot arrays side by side).
+    /// </summary>
+    public long GrowthPeakBytes => MemoryBytes + 2L * _slotCount * sizeof(Slot);
+
+    /// <summary>
+    /// The most bytes the table may reach while growing (<see cref="GrowthPeakBytes"/>). When a growth would pass
+    /// it the table does not grow but fills further (up to 3/4 of its slots) and sets <see cref="OverLimit"/>, so its
+    /// owner can spill it before memory doubles; past 3/4 it grows anyway, so adding never fails.
+    /// </summary>
+    public long GrowthLimit { get; set; } = long.MaxValue;
+
+    /// <summary>Set when the table held back a growth because of <see cref="GrowthLimit"/>; cleared by <see cref="Clear"/>.</summary>
+    public bool OverLimit { get; private set; }
+
+    /// <summary>
+    /// Whether the table should be spilled under a budget of <paramref name="budget"/> bytes: it held back a growth,
+    /// or it holds more than the budget and at least as many keys as an empty table has room for before its first
+    /// growth (an empty table's own blocks may exceed a tiny budget; spilling it then would write runs of a few keys).
+    /// </summary>
+    public bool OverBudget(long budget) => OverLimit || (MemoryBytes > budget && _count >= InitialSlots / 2);
 
     /// <summary>The entries in insertion order, with their counts.</summary>
     internal ReadOnlySpan<Entry> Entries
@@ -63,19 +140,19 @@ internal sealed class TokenTable
         get
         {
             if (_dirty) SyncCounts();
-            return _entries.AsSpan(0, _count);
+            return new ReadOnlySpan<Entry>(_entries, _count);
         }
     }
 
     private void SyncCounts()
     {
-        foreach (ref readonly var s in _slots.AsSpan())
+        foreach (ref readonly var s in new ReadOnlySpan<Slot>(_slots, _slotCount))
             if (s.Entry != 0) _entries[s.Entry - 1].Count = s.Count;
         _dirty = false;
     }
 
     /// <summary>The key bytes of an entry.</summary>
-    public ReadOnlySpan<byte> Key(in Entry e) => _pages[(int)(e.Ref >> 32)].AsSpan((int)e.Ref, e.Len);
+    public ReadOnlySpan<byte> Key(in Entry e) => new((byte*)_pages[(int)(e.Ref >> 32)] + (uint)e.Ref, e.Len);
 
 
     /// <summary>
@@ -113,34 +190,29 @@ internal sealed class TokenTable
     private ulong HashAndPrefetch(in PackedToken t)
     {
         ulong h = KeyPacking.Mix(t.Lo, t.Hi, t.Length);
-        if (Sse.IsSupported)
-        {
-            Slot[] slots = _slots;
-            unsafe { Sse.Prefetch0(Unsafe.AsPointer(ref Unsafe.Add(ref MemoryMarshal.GetArrayDataReference(slots), (int)h & (slots.Length - 1)))); }
-        }
+        if (Sse.IsSupported) Sse.Prefetch0(_slots + ((int)h & (_slotCount - 1)));
         return h;
     }
 
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     private void AddShortHashed(ulong a, ulong b, int len, ulong h, long first)
     {
-        Slot[] slots = _slots;
-        int mask = slots.Length - 1;
+        Slot* slots = _slots;
+        int mask = _slotCount - 1;
         int i = (int)h & mask;
-        ref Slot s0 = ref MemoryMarshal.GetArrayDataReference(slots);
         while (true)
         {
-            ref Slot s = ref Unsafe.Add(ref s0, i);
-            if (s.K0 == a && s.K1 == b && s.Len == len)
+            Slot* s = slots + i;
+            if (s->K0 == a && s->K1 == b && s->Len == len)
             {
-                s.Count++;
+                s->Count++;
                 _dirty = true;
                 return;
             }
-            if (s.Entry == 0) break;
+            if (s->Entry == 0) break;
             i = (i + 1) & mask;
         }
-        InsertShort(ref Unsafe.Add(ref s0, i), a, b, len, first);
+        InsertShort(ref slots[i], a, b, len, first);
     }
 
     [MethodImpl(MethodImplOptions.NoInlining)]
@@ -166,7 +238,7 @@ internal sealed class TokenTable
     /// </summary>
     private void Upsert(ulong k0, ulong k1, ulong h, ReadOnlySpan<byte> key, long count, long first, int id)
     {
-        int mask = _slots.Length - 1;
+        int mask = _slotCount - 1;
         int i = (int)h & mask;
         while (true)
         {
@@ -190,7 +262,11 @@ internal sealed class TokenTable
 
     private void Insert(ref Slot s, ulong k0, ulong k1, ReadOnlySpan<byte> key, long count, long first, int id)
     {
-        if (_count == _entries.Length) Array.Resize(ref _entries, _entries.Length * 2);
+        if (_count == _entryCap)
+        {
+            _entries = (Entry*)NativeBlock.Grow(_entries, (long)_entryCap * sizeof(Entry), 2L * _entryCap * sizeof(Entry));
+            _entryCap *= 2;
+        }
         _entries[_count] = new Entry { Ref = Store(key), Len = key.Length, Id = id, Count = count, First = first };
         _count++;
         s.K0 = k0;
@@ -199,20 +275,32 @@ internal sealed class TokenTable
         s.Count = count;
         s.Entry = _count;
         _dirty = true;
-        if (_count * 2 > _slots.Length) Rehash();
+        if ((long)_count * 2 > _slotCount)
+        {
+            // spill before growth: under a limit the table fills to 3/4 and waits for its owner to spill it
+            if (GrowthPeakBytes > GrowthLimit && (long)_count * 4 < 3L * _slotCount) OverLimit = true;
+            else Rehash();
+        }
     }
 
     private long Store(ReadOnlySpan<byte> key)
     {
-        if (_pagePos + key.Length > _page.Length)
+        if (_pagePos + key.Length > _pageSize)
         {
-            _page = new byte[Math.Max(PageBytes, key.Length)];
-            if (_pageCount == _pages.Length) Array.Resize(ref _pages, _pages.Length * 2);
-            _pages[_pageCount++] = _page;
+            int size = Math.Max(Math.Min(PageBytes, Math.Max(FirstPageBytes, _pageSize * 2)), key.Length);
+            _page = (byte*)NativeBlock.Alloc(size);
+            if (_pageCount == _pages.Length)
+            {
+                Array.Resize(ref _pages, _pages.Length * 2);
+                Array.Resize(ref _pageSizes, _pageSizes.Length * 2);
+            }
+            _pages[_pageCount] = (nint)_page;
+            _pageSizes[_pageCount++] = size;
+            _pageSize = size;
             _pagePos = 0;
-            _arenaBytes += _page.Length;
+            _arenaBytes += size;
         }
-        key.CopyTo(_page.AsSpan(_pagePos));
+        key.CopyTo(new Span<byte>(_page + _pagePos, key.Length));
         long r = ((long)(_pageCount - 1) << 32) | (uint)_pagePos;
         _pagePos += key.Length;
         return r;
@@ -220,12 +308,10 @@ internal sealed class TokenTable
 
     private void Rehash()
     {
-        var ns = new Slot[_slots.Length * 2];
-        // Write every page before probing it: a fresh page that is read first maps the shared zero page, and the
-        // later write then costs a copy-on-write fault with a TLB flush on every core.
-        ns.AsSpan().Clear();
-        int mask = ns.Length - 1;
-        foreach (ref readonly var s in _slots.AsSpan())
+        int n = _slotCount * 2;
+        var ns = NewSlots(n);
+        int mask = n - 1;
+        foreach (ref readonly var s in new ReadOnlySpan<Slot>(_slots, _slotCount))
         {
             if (s.Entry == 0) continue;
             ulong h = s.Len <= 16 ? KeyPacking.Mix(s.K0, s.K1, s.Len) : s.K0;
@@ -233,7 +319,9 @@ internal sealed class TokenTable
             while (ns[i].Entry != 0) i = (i + 1) & mask;
             ns[i] = s;
         }
+        NativeBlock.Free(_slots, (long)_slotCount * sizeof(Slot));
         _slots = ns;
+        _slotCount = n;
     }
 
     /// <summary>Entry indices sorted by key bytes (ordinal), the order of a spill run.</summary>
@@ -242,22 +330,34 @@ internal sealed class TokenTable
     /// <summary>Entry indices in rank order: count descending, ties by key bytes.</summary>
     public int[] IndicesByRank() => SortedIndices(byCount: true);
 
+    /// <summary>Bytes the sort behind <see cref="IndicesByKey"/> and <see cref="IndicesByRank"/> holds while it runs.</summary>
+    public long SortBytes => (long)_count * (sizeof(SortKey) + sizeof(int));
+
     private int[] SortedIndices(bool byCount)
     {
         var entries = Entries;
-        var keys = new SortKey[entries.Length];
-        for (int i = 0; i < keys.Length; i++)
+        int n = entries.Length;
+        // the sort keys live in a native block, freed as soon as the order is read off
+        var keys = (SortKey*)NativeBlock.Alloc((long)Math.Max(1, n) * sizeof(SortKey));
+        try
         {
-            var k = Key(entries[i]);
-            KeyPacking.Pack16(k[..Math.Min(16, k.Length)], out ulong a, out ulong b);
-            // little-endian packed words byte-reversed: the first byte becomes the most significant
-            keys[i] = new SortKey(byCount ? entries[i].Count : 0, BinaryPrimitives.ReverseEndianness(a),
-                BinaryPrimitives.ReverseEndianness(b), k.Length, i);
+            for (int i = 0; i < n; i++)
+            {
+                var k = Key(entries[i]);
+                KeyPacking.Pack16(k[..Math.Min(16, k.Length)], out ulong a, out ulong b);
+                // little-endian packed words byte-reversed: the first byte becomes the most significant
+                keys[i] = new SortKey(byCount ? entries[i].Count : 0, BinaryPrimitives.ReverseEndianness(a),
+                    BinaryPrimitives.ReverseEndianness(b), k.Length, i);
+            }
+            new SortKeyComparer(this).SortParallel(keys, n);
+            var idx = new int[n];
+            for (int i = 0; i < idx.Length; i++) idx[i] = keys[i].Index;
+            return idx;
         }
-        new SortKeyComparer(this).SortParallel(keys);
-        var idx = new int[keys.Length];
-        for (int i = 0; i < idx.Length; i++) idx[i] = keys[i].Index;
-        return idx;
+        finally
+        {
+            NativeBlock.Free(keys, (long)Math.Max(1, n) * sizeof(SortKey));
+        }
     }
 
     /// <summary>
@@ -285,20 +385,21 @@ internal sealed class TokenTable
         }
 
         /// <summary>Sorts; a large array is split by one partition step and its two sides sorted on two threads.</summary>
-        public void SortParallel(SortKey[] a)
+        public void SortParallel(SortKey* a, int n)
         {
-            int hi = a.Length - 1;
-            if (a.Length < 1 << 15 || Environment.ProcessorCount < 2)
+            int hi = n - 1;
+            if (n < 1 << 15 || Environment.ProcessorCount < 2)
             {
                 Sort(a, 0, hi);
                 return;
             }
             var (j, i) = Partition(a, 0, hi);
             var me = this;
-            Parallel.Invoke(() => me.Sort(a, 0, j), () => me.Sort(a, i, hi));
+            nint p = (nint)a;
+            Parallel.Invoke(() => me.Sort((SortKey*)p, 0, j), () => me.Sort((SortKey*)p, i, hi));
         }
 
-        private (int J, int I) Partition(SortKey[] a, int lo, int hi)
+        private (int J, int I) Partition(SortKey* a, int lo, int hi)
         {
             int mid = lo + ((hi - lo) >> 1);
             if (Compare(a[mid], a[lo]) < 0) (a[mid], a[lo]) = (a[lo], a[mid]);
@@ -320,7 +421,7 @@ internal sealed class TokenTable
             return (j, i);
         }
 
-        public void Sort(SortKey[] a, int lo, int hi)
+        public void Sort(SortKey* a, int lo, int hi)
         {
             while (hi - lo >= 24)
             {
@@ -355,7 +456,7 @@ internal sealed class TokenTable
     {
         // straight from the other table's slots: keys come packed (or hashed) with their counts, and the other arena is
         // read only to insert a key or to compare a long one
-        foreach (ref readonly var o in other._slots.AsSpan())
+        foreach (ref readonly var o in new ReadOnlySpan<Slot>(other._slots, other._slotCount))
         {
             if (o.Entry == 0) continue;
             ref readonly var e = ref other._entries[o.Entry - 1];
@@ -364,17 +465,11 @@ internal sealed class TokenTable
         }
     }
 
-    /// <summary>Forgets everything (after a spill).</summary>
+    /// <summary>Forgets everything (after a spill) and returns its memory to the operating system.</summary>
     public void Clear()
     {
-        _pages = new byte[16][];
-        _pageCount = 0;
-        _page = [];
-        _pagePos = PageBytes;
-        _arenaBytes = 0;
-        _slots = new Slot[InitialSlots];
-        _entries = new Entry[InitialSlots / 2];
-        _count = 0;
-        _dirty = false;
+        FreeAll();
+        Init();
+        OverLimit = false;
     }
 }
