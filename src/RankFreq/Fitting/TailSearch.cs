@@ -25,6 +25,8 @@ namespace RankFreq.Fitting;
 /// warm starts differ). Costs: a candidate's α fit is O(1) zeta evaluations; its KS walk O(log k) per block that
 /// cannot be pruned, and only blocks whose CDF change is comparable to d survive, so in practice the search is
 /// close to O(k log k). <see cref="SearchFullScan"/> keeps the point-by-point scan as the reference.</para>
+/// <para>Before a candidate is fitted, an exact lower bound on its KS distance from one ζ evaluation at the predicted
+/// Newton start drops it when it cannot beat the best so far (TailSearch.Screen.cs, with its proof sketch).</para>
 /// </remarks>
 public sealed partial class TailSearch
 {
