@@ -77,9 +77,9 @@ public static class LnreFitter
                 $"only {k} leading spectrum element(s) hold at least 5 types; the {family} model needs {p} for a test with 1 degree of freedom", k);
         Func<double[], LnreModel?> build = family switch
         {
-            "zm" => t => BuildZm(h, Logistic(t[0])),
-            "fzm" => t => BuildFzm(h, Logistic(t[0]), Math.Exp(t[1]) / h.Tokens),
-            _ => t => BuildGigp(h, -1.5 + 2 * Logistic(t[0]), Math.Exp(t[1])),
+            "zm" => t => BuildZm(h, Logistic(t[0]), (start as ZipfMandelbrotModel)?.B),
+            "fzm" => t => BuildFzm(h, Logistic(t[0]), Math.Exp(t[1]) / h.Tokens, (start as FiniteZipfMandelbrotModel)?.B),
+            _ => t => BuildGigp(h, -1.5 + 2 * Logistic(t[0]), Math.Exp(t[1]), (start as GigpModel)?.C),
         };
         double Cost(double[] t) => build(t) is { } m ? CostOf(h, m) : double.MaxValue;
         var starts = Starts(h, family, start);
@@ -151,30 +151,32 @@ public static class LnreFitter
         };
     }
 
-    private static ZipfMandelbrotModel? BuildZm(SpectrumHead h, double alpha)
+    // a refit passes the fitted model's scale as "near": the root is searched from there in small steps, which saves
+    // most of the bracketing (a bootstrap draw moves it little)
+    private static ZipfMandelbrotModel? BuildZm(SpectrumHead h, double alpha, double? near)
     {
         if (alpha is <= 0.001 or >= 0.999) return null;
         double lnB = SolveScale(lb => new ZipfMandelbrotModel(alpha, Math.Exp(lb)).ExpectedTypes(h.Tokens) - h.Types,
-            ZmGuess(h, alpha), double.NegativeInfinity, 0);
+            near is { } b0 ? Math.Log(b0) : ZmGuess(h, alpha), double.NegativeInfinity, 0, near is null ? 1 : 0.05);
         return double.IsNaN(lnB) ? null : new ZipfMandelbrotModel(alpha, Math.Exp(lnB));
     }
 
-    private static FiniteZipfMandelbrotModel? BuildFzm(SpectrumHead h, double alpha, double a)
+    private static FiniteZipfMandelbrotModel? BuildFzm(SpectrumHead h, double alpha, double a, double? near)
     {
         if (alpha is <= 0.001 or >= 0.999 || !(a > 0)) return null;
         double lnA = Math.Log(a);
         if (lnA >= -1e-9) return null;
         double lnB = SolveScale(lb => new FiniteZipfMandelbrotModel(alpha, a, Math.Exp(lb)).ExpectedTypes(h.Tokens) - h.Types,
-            Math.Max(ZmGuess(h, alpha), lnA + 1), lnA + 1e-9, 0);
+            near is { } b0 ? Math.Max(Math.Log(b0), lnA + 1e-6) : Math.Max(ZmGuess(h, alpha), lnA + 1), lnA + 1e-9, 0, near is null ? 1 : 0.05);
         return double.IsNaN(lnB) ? null : new FiniteZipfMandelbrotModel(alpha, a, Math.Exp(lnB));
     }
 
-    private static GigpModel? BuildGigp(SpectrumHead h, double gamma, double b)
+    private static GigpModel? BuildGigp(SpectrumHead h, double gamma, double b, double? near)
     {
         if (!(b > 1e-12) || b > 1e6) return null;
         // E[V(N)] falls as c grows (S ∝ 1/c); start where S·(1 − …) is about V, i.e. c ≈ 1/N
         double lnC = SolveScale(lc => new GigpModel(gamma, b, Math.Exp(lc)).ExpectedTypes(h.Tokens) - h.Types,
-            -Math.Log(h.Tokens), double.NegativeInfinity, double.PositiveInfinity);
+            near is { } c0 ? Math.Log(c0) : -Math.Log(h.Tokens), double.NegativeInfinity, double.PositiveInfinity, near is null ? 1 : 0.05);
         return double.IsNaN(lnC) ? null : new GigpModel(gamma, b, Math.Exp(lnC));
     }
 
@@ -183,13 +185,13 @@ public static class LnreFitter
         Math.Min(-1e-6, (Math.Log(h.Types * alpha / (1 - alpha)) - alpha * Math.Log(h.Tokens) - SpecialFunctions.GammaLn(1 - alpha)) / (alpha - 1));
 
     /// <summary>Root of a decreasing function f on (lo, hi], bracketed by stepping from x0; NaN when none.</summary>
-    private static double SolveScale(Func<double, double> f, double x0, double lo, double hi)
+    private static double SolveScale(Func<double, double> f, double x0, double lo, double hi, double step)
     {
         x0 = Math.Min(x0, hi);
         if (x0 <= lo) x0 = lo + 1e-6;
         double fx = f(x0);
         if (!double.IsFinite(fx)) return double.NaN;
-        double a = x0, b = x0, fa = fx, fb = fx, step = 1;
+        double a = x0, b = x0, fa = fx, fb = fx;
         for (int i = 0; i < 60 && fa * fb > 0; i++)
         {
             if (fx > 0) { a = b; fa = fb; b = Math.Min(hi, b + step); if (b == a) return double.NaN; fb = f(b); }

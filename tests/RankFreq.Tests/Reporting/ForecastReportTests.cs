@@ -42,7 +42,8 @@ public class ForecastReportTests
         {
             Assert.Contains($"<td data-label=\"size\">{WebUtility.HtmlEncode(t.Value.ToString("G4", CultureInfo.InvariantCulture) + "×")}</td>", section);
             Assert.Contains($">{p.Types.ToString("N0", CultureInfo.InvariantCulture)}</td>", section);
-            Assert.Contains($">{p.TypesLo.ToString("N0", CultureInfo.InvariantCulture)} – {p.TypesHi.ToString("N0", CultureInfo.InvariantCulture)}</td>", section);
+            string lo = p.TypesLo.ToString("N0", CultureInfo.InvariantCulture), hi = p.TypesHi.ToString("N0", CultureInfo.InvariantCulture);
+            Assert.Contains($">{lo} – {hi}</td>", section);
         }
         Assert.Equal(2, r.AtTargets().Count);
         foreach (var c in r.Cautions) Assert.Contains(WebUtility.HtmlEncode(c), section);
