@@ -43,6 +43,10 @@ internal sealed class CorpusOptions
     public readonly Option<string?> TempDir = new("--temp-dir") { Description = "Folder for spill runs (default: system temporary folder)" };
     public readonly Option<bool> Quiet = new("--quiet", "-q") { Description = "No progress or summary on the console" };
     public readonly Option<bool> Json = new("--json") { Description = "Print a machine-readable summary on stdout" };
+    public readonly Option<bool> Specials = new("--specials")
+    {
+        Description = "tokenizer.json: count special-token text (such as an end-of-text marker) as the special token",
+    };
 
     public void AddTo(Command c)
     {
@@ -50,11 +54,15 @@ internal sealed class CorpusOptions
         var options = new Option[]
         {
             Tokenizer, Format, TextField, TextColumn, Include, Exclude, MaxRecord, Strict, Threads, Memory, Shard,
-            RedactBelow, TempDir, Quiet, Json,
+            RedactBelow, TempDir, Quiet, Json, Specials,
         };
         foreach (var o in options)
             c.Options.Add(o);
     }
+
+    /// <summary>A tokenizer spec as given, with special-token parsing when --specials is set.</summary>
+    public string Spec(ParseResult pr, string spec) =>
+        pr.GetValue(Specials) ? Tokenization.TokenizerJsonLoader.WithSpecials(spec) : spec;
 
     public CountSettings Settings(ParseResult pr)
     {
@@ -78,7 +86,7 @@ internal sealed class CorpusOptions
         if (pr.GetValue(RedactBelow) < 0) throw new UsageException("--redact-below must be positive");
         var source = new SourceOptions(fmt, pr.GetValue(TextField) ?? "text", pr.GetValue(TextColumn) ?? "text",
             CliApp.ParseSize(pr.GetValue(MaxRecord), "--max-record"), pr.GetValue(Strict), pr.GetValue(Include) ?? [], pr.GetValue(Exclude) ?? []);
-        return new CountSettings(pr.GetValue(Tokenizer) ?? "words", source, threads,
+        return new CountSettings(Spec(pr, pr.GetValue(Tokenizer) ?? "words"), source, threads,
             CliApp.ParseSize(pr.GetValue(Memory), "--memory"), k, n, pr.GetValue(TempDir));
     }
 }

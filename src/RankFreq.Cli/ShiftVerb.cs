@@ -50,7 +50,7 @@ internal static class ShiftVerb
                     try { key = Sources.GroupKey.Parse(byValue); }
                     catch (FormatException e) { throw new UsageException(e.Message); }
                 }
-                var settings = new ShiftSettings(count, pr.GetValue(baseline)!, pr.GetValue(candidate)!,
+                var settings = new ShiftSettings(count, common.Spec(pr, pr.GetValue(baseline)!), common.Spec(pr, pr.GetValue(candidate)!),
                     new ShiftOptions(fit, renyi), pr.GetValue(output), key, pr.GetValue(title));
                 bool quiet = pr.GetValue(common.Quiet);
                 var cp = new ConsoleProgress(stderr, quiet);

@@ -5,6 +5,8 @@
 //        after a "total N" line); jsonl: one document per record (field "text"), text: each file one document,
 //        lines: each line of each file one document (the line break not included)
 //   node tokenizer-reference.js ids TOKENIZER.json FILE.jsonl    each record's ids, one line per record
+//   node tokenizer-reference.js count-specials TOKENIZER.json FORMAT FILE...   as count, but with special-token
+//        parsing: special added tokens written in the text encode as their ids (only the post-processor is dropped)
 //   node tokenizer-reference.js train unigram|wordpiece CORPUS.txt OUT.json    trains a small model
 //
 // Documents are encoded without special tokens, and special added tokens are made unmatchable first (and the
@@ -18,11 +20,11 @@ const modules = process.env.RANKFREQ_TOKENIZERS;
 if (!modules) { console.error('RANKFREQ_TOKENIZERS is not set'); process.exit(2); }
 const tk = require(path.join(modules, '@anush008', 'tokenizers'));
 
-function loadAsText(file) {
+function loadAsText(file, keepSpecials = false) {
   const j = JSON.parse(fs.readFileSync(file, 'utf8'));
   // special tokens keep their place (removing them would renumber later added tokens) under a content that never
   // occurs in text: two Unicode noncharacters around a name
-  for (const a of j.added_tokens || []) if (a.special) { a.content = `\uFDD0rankfreq special ${a.id}\uFDD1`; a.normalized = false; }
+  for (const a of j.added_tokens || []) if (a.special && !keepSpecials) { a.content = `\uFDD0rankfreq special ${a.id}\uFDD1`; a.normalized = false; }
   j.post_processor = null;
   const tmp = path.join(os.tmpdir(), `rankfreq-ref-${process.pid}.json`);
   fs.writeFileSync(tmp, JSON.stringify(j));
@@ -46,9 +48,9 @@ function documents(format, files) {
   return docs;
 }
 
-async function count(tokFile, format, files) {
+async function count(tokFile, format, files, keepSpecials = false) {
   const t0 = process.hrtime.bigint();
-  const tok = loadAsText(tokFile);
+  const tok = loadAsText(tokFile, keepSpecials);
   const docs = documents(format, files);
   const counts = new Map();
   let total = 0;
@@ -92,7 +94,8 @@ function train(kind, corpus, out) {
 }
 
 const [cmd, ...args] = process.argv.slice(2);
-if (cmd === 'count') count(args[0], args[1], args.slice(2)).catch(e => { console.error(e); process.exit(1); });
+if (cmd === 'count' || cmd === 'count-specials')
+  count(args[0], args[1], args.slice(2), cmd === 'count-specials').catch(e => { console.error(e); process.exit(1); });
 else if (cmd === 'ids') ids(args[0], args[1]).catch(e => { console.error(e); process.exit(1); });
 else if (cmd === 'train') train(args[0], args[1], args[2]);
 else { console.error('usage: tokenizer-reference.js count|train ...'); process.exit(2); }

@@ -19,6 +19,7 @@ public static class TokenizerFactory
         ("sentencepiece:MODEL", "SentencePiece model file (encoded line by line)"),
         ("wordpiece:VOCAB.txt", "WordPiece vocabulary, one token a line"),
         ("hf:TOKENIZER.json", "Hugging Face tokenizer.json (also any path ending in .json); special tokens count as text"),
+        ("hf-specials:TOKENIZER.json", "the same, with special-token text counted as the special token (--specials)"),
     ];
 
     /// <summary>Creates the tokenizer a spec names; throws <see cref="SettingsException"/> for a spec that names no
@@ -35,6 +36,8 @@ public static class TokenizerFactory
             case "cl100k_base" or "o200k_base" or "r50k_base": return SubwordTokenizer.Tiktoken(spec);
         }
         if (spec.StartsWith("hf:", StringComparison.Ordinal)) return TokenizerJsonLoader.Load(spec[3..]);
+        if (spec.StartsWith(TokenizerJsonLoader.SpecialsPrefix, StringComparison.Ordinal))
+            return TokenizerJsonLoader.Load(spec[TokenizerJsonLoader.SpecialsPrefix.Length..], specials: true);
         if (spec.EndsWith(".json", StringComparison.OrdinalIgnoreCase)) return TokenizerJsonLoader.Load(spec);
         int colon = spec.IndexOf(':');
         if (colon > 0)

@@ -86,9 +86,14 @@ public static class TokenizerFiles
     }
 
     /// <summary>Per-id counts printed by the reference script's count mode.</summary>
-    public static (long Total, SortedDictionary<int, long> Counts) ReferenceCounts(string tokenizer, string format, params string[] files)
+    public static (long Total, SortedDictionary<int, long> Counts) ReferenceCounts(string tokenizer, string format, params string[] files) =>
+        ReferenceCountsOf("count", tokenizer, format, files);
+
+    /// <summary>Per-id counts printed by the reference script's <paramref name="command"/> (count, count-specials).</summary>
+    public static (long Total, SortedDictionary<int, long> Counts) ReferenceCountsOf(string command, string tokenizer, string format,
+        params string[] files)
     {
-        var lines = Node(["count", tokenizer, format, .. files]).Split('\n', StringSplitOptions.RemoveEmptyEntries);
+        var lines = Node([command, tokenizer, format, .. files]).Split('\n', StringSplitOptions.RemoveEmptyEntries);
         long total = long.Parse(lines[0]["total ".Length..]);
         var counts = new SortedDictionary<int, long>();
         foreach (var l in lines.Skip(1))

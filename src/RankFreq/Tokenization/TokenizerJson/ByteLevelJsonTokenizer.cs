@@ -20,7 +20,7 @@ public sealed class ByteLevelJsonTokenizer : TokenizerJsonTokenizer
     private readonly ByteLevelBpe _bpe;
     private readonly SplitRule[] _rules;
     private readonly bool _nfc;
-    private readonly AddedTokenEntry[] _added; // not special; matched leftmost-longest before normalisation
+    private readonly AddedTokenEntry[] _added; // matched leftmost-longest before normalisation
     private readonly System.Buffers.SearchValues<char> _addedFirst;
 
     internal ByteLevelJsonTokenizer(TokenizerJsonFile f, ByteLevelBpe bpe, SplitRule[] rules, bool nfc, bool cutSafe)
@@ -30,7 +30,7 @@ public sealed class ByteLevelJsonTokenizer : TokenizerJsonTokenizer
         _bpe = bpe;
         _rules = rules;
         _nfc = nfc;
-        _added = f.Added.Where(a => !a.Special && a.Content.Length > 0).OrderByDescending(a => a.Content.Length).ToArray();
+        _added = f.Added.Where(a => f.Matched(a) && a.Content.Length > 0).OrderByDescending(a => a.Content.Length).ToArray();
         _addedFirst = System.Buffers.SearchValues.Create(_added.Select(a => a.Content[0]).Distinct().ToArray());
     }
 

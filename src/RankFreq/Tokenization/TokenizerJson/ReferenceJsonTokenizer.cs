@@ -29,7 +29,7 @@ public sealed class ReferenceJsonTokenizer : TokenizerJsonTokenizer, IDisposable
         string tmp = Path.Combine(Path.GetTempPath(), $"rankfreq-{Environment.ProcessId}-{Guid.NewGuid():N}.json");
         try
         {
-            File.WriteAllBytes(tmp, WithoutSpecials(f.Root));
+            File.WriteAllBytes(tmp, WithoutSpecials(f.Root, f.ParseSpecials));
             _reference = new Hf.Tokenizer(tmp);
         }
         catch (Exception e) when (e is not TokenizerException)
@@ -57,8 +57,9 @@ public sealed class ReferenceJsonTokenizer : TokenizerJsonTokenizer, IDisposable
 
     private static string OneLine(string s) => s.ReplaceLineEndings(" ").Trim();
 
-    /// <summary>The file's JSON with its special added tokens made unmatchable and without a post-processor.</summary>
-    internal static byte[] WithoutSpecials(JsonElement root)
+    /// <summary>The file's JSON without a post-processor and, unless <paramref name="keepSpecials"/>, with its special
+    /// added tokens made unmatchable.</summary>
+    internal static byte[] WithoutSpecials(JsonElement root, bool keepSpecials = false)
     {
         var buffer = new System.Buffers.ArrayBufferWriter<byte>();
         using (var w = new Utf8JsonWriter(buffer))
@@ -68,7 +69,7 @@ public sealed class ReferenceJsonTokenizer : TokenizerJsonTokenizer, IDisposable
             {
                 if (p.NameEquals("post_processor")) { w.WriteNull(p.Name); continue; }
                 w.WritePropertyName(p.Name);
-                if (!p.NameEquals("added_tokens") || p.Value.ValueKind != JsonValueKind.Array) { p.Value.WriteTo(w); continue; }
+                if (keepSpecials || !p.NameEquals("added_tokens") || p.Value.ValueKind != JsonValueKind.Array) { p.Value.WriteTo(w); continue; }
                 // special entries keep their place (removing them would renumber later added tokens) under a content
                 // that never occurs in text: two Unicode noncharacters around a name
                 w.WriteStartArray();

@@ -43,6 +43,14 @@ internal sealed class TokenizerJsonFile : IDisposable
     public Dictionary<string, int> Vocab { get; } = new(StringComparer.Ordinal);
     /// <summary>BPE merges in rank order, as ids: left, right and the merged token.</summary>
     public List<(int Left, int Right, int Merged)> Merges { get; } = [];
+    /// <summary>Whether special added tokens are matched in the text (<c>--specials</c>) rather than counted as text.
+    /// </summary>
+    public bool ParseSpecials { get; set; }
+
+    /// <summary>Whether added token <paramref name="a"/> is looked for in the text: every added token that is not
+    /// special, and the special ones too with <see cref="ParseSpecials"/>.</summary>
+    public bool Matched(AddedTokenEntry a) => ParseSpecials || !a.Special;
+
     /// <summary>Added tokens, special or not.</summary>
     public List<AddedTokenEntry> Added { get; } = [];
 

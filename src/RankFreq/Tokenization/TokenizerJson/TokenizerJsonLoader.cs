@@ -9,10 +9,24 @@ namespace RankFreq.Tokenization;
 /// </summary>
 public static class TokenizerJsonLoader
 {
-    /// <summary>Loads a tokenizer.json file; <see cref="TokenizerException"/> with one line naming the file otherwise.</summary>
-    public static TokenizerJsonTokenizer Load(string path)
+    /// <summary>Spec prefix of a tokenizer.json file read with special-token parsing (<c>--specials</c>).</summary>
+    public const string SpecialsPrefix = "hf-specials:";
+
+    /// <summary>The spec <paramref name="spec"/> with special-token parsing when it names a tokenizer.json file
+    /// (<c>hf:PATH</c> or a path ending in .json); any other spec unchanged.</summary>
+    public static string WithSpecials(string spec) =>
+        spec.StartsWith("hf:", StringComparison.Ordinal) ? SpecialsPrefix + spec[3..]
+        : !spec.StartsWith(SpecialsPrefix, StringComparison.Ordinal) && spec.EndsWith(".json", StringComparison.OrdinalIgnoreCase)
+            && !spec.StartsWith("bpe:", StringComparison.Ordinal) ? SpecialsPrefix + spec
+        : spec;
+
+    /// <summary>Loads a tokenizer.json file; <see cref="TokenizerException"/> with one line naming the file otherwise.
+    /// With <paramref name="specials"/>, special added tokens written in the text count as their ids (as the reference
+    /// encodes with special-token parsing, but still without adding any); by default their text counts as text.</summary>
+    public static TokenizerJsonTokenizer Load(string path, bool specials = false)
     {
         using var f = TokenizerJsonFile.Read(path);
+        f.ParseSpecials = specials;
         var pre = TokenizerJsonFile.Steps(f.PreTokenizer, "pretokenizers");
         bool byteLevel = pre.Any(p => TokenizerJsonFile.Str(p, "type") == "ByteLevel");
         var fast = TryFast(f, pre, out string why);
@@ -52,10 +66,10 @@ public static class TokenizerJsonLoader
         // ByteLevel's own regex is on unless use_regex is false
         if (TokenizerJsonFile.Prop(last, "use_regex").ValueKind != JsonValueKind.False) rules.Add(SplitRule.For(SplitRule.ByteLevelForm)!);
         if (rules.Count == 0) { why = "no pre-tokenizer split"; return null; }
-        if (f.Added.Any(a => !a.Special && (a.Normalized || a.Strips))) { why = "added tokens matched after normalisation or stripped"; return null; }
+        if (f.Added.Any(a => f.Matched(a) && (a.Normalized || a.Strips))) { why = "added tokens matched after normalisation or stripped"; return null; }
         var bpe = ByteLevelBpe.TryCreate(f, TokenizerJsonFile.Flag(m, "ignore_merges"), out var reason);
         if (bpe is null) { why = reason!; return null; }
-        bool cutSafe = rules.All(r => r.CutSafe) && !f.Added.Any(a => !a.Special && NewlineLetter(a.Content));
+        bool cutSafe = rules.All(r => r.CutSafe) && !f.Added.Any(a => f.Matched(a) && NewlineLetter(a.Content));
         return new ByteLevelJsonTokenizer(f, bpe, [.. rules], norms.Count > 0, cutSafe);
     }
 
@@ -110,7 +124,7 @@ public static class TokenizerJsonLoader
             }
         }
         if (f.ModelType == "WordPiece" && !splitsWords) return false;
-        if (f.Vocab.Keys.Any(NewlineLetter) || f.Added.Any(a => !a.Special && NewlineLetter(a.Content))) return false;
+        if (f.Vocab.Keys.Any(NewlineLetter) || f.Added.Any(a => f.Matched(a) && NewlineLetter(a.Content))) return false;
         // unknown-token fusing (BPE, Unigram) could join an unknown letter to an unknown newline
         if (f.ModelType is not ("BPE" or "Unigram") || pre.Any(p => TokenizerJsonFile.Str(p, "type") == "ByteLevel")) return true;
         bool lower = TokenizerJsonFile.Steps(f.Normalizer, "normalizers").Any(n =>

@@ -30,7 +30,7 @@ public abstract class TokenizerJsonTokenizer : ITokenizer
         foreach (var a in f.Added) _raw[a.Id] = a.Content;
         _byteLevel = byteLevel;
         _display = new string[_raw.Length];
-        Spec = "hf:" + path;
+        Spec = (f.ParseSpecials ? TokenizerJsonLoader.SpecialsPrefix : "hf:") + path;
         Normalization = normalization;
         CutSafe = cutSafe;
         Engine = engine;
