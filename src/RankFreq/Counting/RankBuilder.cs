@@ -136,6 +136,8 @@ internal static class RankBuilder
                 }
             }
             if (counts.Count > 0) yield return new CountRowBatch(rank, tokens.ToArray(), withIds ? ids.ToArray() : null, counts.ToArray());
+            // read once and to the end: the runs are of no further use, so they go now rather than at dispose
+            spill.Dispose();
         }
 
         public void Dispose() => spill.Dispose();

@@ -31,7 +31,7 @@ public static class ContrastTables
             footer["rankfreq.group_key"] = groupKey;
             using var w = new FlatParquetWriter(stream, columns) { Metadata = footer, CreatedBy = $"rankfreq {meta.ToolVersion}" };
             foreach (var g in groups)
-                foreach (var b in g.Rows.Batches())
+                foreach (var b in RowGroups.Of(g.Rows.Batches()))
                 {
                     ct.ThrowIfCancellationRequested();
                     var data = new List<Array> { Enumerable.Repeat<string?>(g.Group, b.Counts.Length).ToArray() };

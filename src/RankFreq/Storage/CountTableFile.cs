@@ -24,7 +24,7 @@ public static class CountTableFile
             columns.Add(new("count", FlatType.Int64));
             columns.Add(new("rank", FlatType.Int64));
             using var w = new FlatParquetWriter(stream, columns) { Metadata = meta.ToFooter(), CreatedBy = $"rankfreq {meta.ToolVersion}" };
-            foreach (var b in rows.Batches())
+            foreach (var b in RowGroups.Of(rows.Batches()))
             {
                 ct.ThrowIfCancellationRequested();
                 w.WriteRowGroup(b.Counts.Length, BatchColumns(b, hasIds, meta.RedactedBelow));
