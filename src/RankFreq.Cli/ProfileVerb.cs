@@ -1,5 +1,6 @@
 using System.CommandLine;
 using RankFreq.Jobs;
+using RankFreq.Reporting;
 
 namespace RankFreq.Cli;
 
@@ -43,6 +44,7 @@ internal static class ProfileVerb
                     + $"unseen mass N1/N {l.GoodTuringUnseen:F4}, Chao1 {l.Chao1:N0}");
                 stdout.WriteLine($"  Heaps β {r.Growth.HeapsBeta:F3} (K {r.Growth.HeapsK:G3}), "
                     + $"entropy {l.EntropyMillerMadowBits:F3} bits/token, Yule's K {l.YuleK:F1}");
+                if (Cautions.HeapsBetaCaution(r.Growth) is { } heaps) stdout.WriteLine($"  note: {heaps}");
                 stdout.WriteLine($"report: {r.ReportPath}");
                 return CliApp.Ok;
             }

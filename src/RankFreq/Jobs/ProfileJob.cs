@@ -71,7 +71,7 @@ public static class ProfileJob
         };
         summary["inputs"] = sum.Inputs.Select(i => new Dictionary<string, object> { ["path"] = i.Path, ["bytes"] = i.Bytes }).ToList();
         summary["version"] = CountTableMetadata.CurrentVersion;
-        summary["cautions"] = Cautions.For(s.RedactBelow);
+        summary["cautions"] = Cautions.For(s.RedactBelow, growth);
         string summaryPath = Path.Combine(dir, "summary.json");
         string summaryJson = JsonText.Write(summary);
         await AtomicFile.WriteTextAsync(summaryPath, summaryJson);

@@ -80,7 +80,7 @@ public static partial class ReportHtml
         if (forecast is not null) ForecastSection(sb, forecast, plots);
 
         sb.Append("<section class=\"caution\" id=\"reading\"><h2>Reading these results</h2><ul>");
-        foreach (var caution in Cautions.For(redactBelow)) sb.Append($"<li>{H(caution)}</li>");
+        foreach (var caution in Cautions.For(redactBelow, g)) sb.Append($"<li>{H(caution)}</li>");
         sb.Append("</ul></section>");
 
         sb.Append("<section><h2>Settings and inputs</h2><table><tbody>");
