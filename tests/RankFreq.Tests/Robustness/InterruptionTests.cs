@@ -173,13 +173,22 @@ public partial class InterruptionTests(RobustnessFixture fixture)
 
     private static Process Start(string verb, string[] args, bool redirectInput)
     {
-        var psi = new ProcessStartInfo(Exe)
+        // A runner started as a background job of a non-interactive shell ignores SIGINT, and its children inherit
+        // that (POSIX), so rankfreq would rightly leave SIGINT ignored; GNU env (coreutils ≥ 8.31) restores the default
+        // disposition before it execs the program (same pid), so the test measures rankfreq and not its parent.
+        bool viaEnv = File.Exists("/usr/bin/env");
+        var psi = new ProcessStartInfo(viaEnv ? "/usr/bin/env" : Exe)
         {
             RedirectStandardOutput = true,
             RedirectStandardError = true,
             RedirectStandardInput = redirectInput,
             UseShellExecute = false,
         };
+        if (viaEnv)
+        {
+            psi.ArgumentList.Add("--default-signal=INT");
+            psi.ArgumentList.Add(Exe);
+        }
         psi.ArgumentList.Add(verb);
         foreach (var a in args) psi.ArgumentList.Add(a);
         var p = Process.Start(psi)!;
