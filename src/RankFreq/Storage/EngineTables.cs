@@ -25,18 +25,6 @@ internal static class EngineTables
     public static async Task<(FrequencySpectrum Spectrum, string Description)> LoadAsync(IReadOnlyList<string> files,
         CancellationToken ct)
     {
-        try { return await LoadCheckedAsync(files, ct); }
-        catch (OverflowException e)
-        {
-            // counts whose total passes what a 64-bit count holds are bad input, not a bug
-            throw new FitInputException($"{files[0]}: the counts add up to more than {long.MaxValue:N0} tokens, more than a "
-                + "count can hold; the table is damaged or not a table of counts", e);
-        }
-    }
-
-    private static async Task<(FrequencySpectrum Spectrum, string Description)> LoadCheckedAsync(IReadOnlyList<string> files,
-        CancellationToken ct)
-    {
         var spectrum = new SpectrumBuilder();
         string? kind = null;
         long rows = 0;

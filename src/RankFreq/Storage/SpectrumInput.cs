@@ -26,6 +26,18 @@ public static class SpectrumInput
     public static async Task<(FrequencySpectrum Spectrum, string Description, IReadOnlyList<string> Notes)> LoadAsync(
         string path, CancellationToken ct = default)
     {
+        try { return await LoadUncheckedAsync(path, ct); }
+        catch (OverflowException e)
+        {
+            // counts whose total passes what a 64-bit count holds are bad input, not a bug
+            throw new FitInputException($"{(path == "-" ? "standard input" : path)}: the counts add up to more than "
+                + $"{long.MaxValue:N0} tokens, more than a count can hold; the input is damaged or not counts", e);
+        }
+    }
+
+    private static async Task<(FrequencySpectrum Spectrum, string Description, IReadOnlyList<string> Notes)> LoadUncheckedAsync(
+        string path, CancellationToken ct)
+    {
         bool stdin = path == "-";
         string name = stdin ? "standard input" : path;
         byte[] head = new byte[PeekBytes];
@@ -148,19 +160,9 @@ public static class SpectrumInput
             notes.Add($"{name}: {repeated:N0} token line{(repeated == 1 ? " repeats" : "s repeat")} an earlier token "
                 + $"(first: {firstRepeat}); their counts were added");
         pairs.AddRange(byToken.Values.Select(v => (v.Count, 1L)));
-        return (Spectrum(pairs, name), tokens ? "token list" : "count list", notes);
+        return (FrequencySpectrum.FromPairs(pairs), tokens ? "token list" : "count list", notes);
     }
 
-    /// <summary>Counts whose total passes what a 64-bit count holds are bad input, not a bug.</summary>
-    private static FrequencySpectrum Spectrum(List<(long, long)> pairs, string name)
-    {
-        try { return FrequencySpectrum.FromPairs(pairs); }
-        catch (OverflowException e)
-        {
-            throw new FitInputException($"{name}: the counts add up to more than {long.MaxValue:N0} tokens, more than a count can hold; "
-                + "the file is damaged or not a list of counts", e);
-        }
-    }
 
     private static bool IsInteger(string s) => long.TryParse(s, NumberStyles.AllowLeadingSign, CultureInfo.InvariantCulture, out _);
 
