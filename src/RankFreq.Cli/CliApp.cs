@@ -81,6 +81,9 @@ public static class CliApp
         return root;
     }
 
+    /// <summary>The one line an interrupted run prints.</summary>
+    internal const string InterruptedLine = "rankfreq: interrupted; no output written";
+
     /// <summary>
     /// Maps an exception to a message and exit code: bad input or environment (<see cref="RankFreqException"/>) 1,
     /// usage 2 (the CLI's <see cref="UsageException"/> or the library's <see cref="SettingsException"/>: a setting no
@@ -99,7 +102,7 @@ public static class CliApp
                     + (r.Setting is { } s && OptionFor.TryGetValue(s, out var option) ? $" (see {option})" : ""));
                 return Error;
             case OperationCanceledException:
-                stderr.WriteLine("rankfreq: interrupted; no output written");
+                stderr.WriteLine(InterruptedLine);
                 return Interrupted;
             case UsageException:
                 stderr.WriteLine($"rankfreq: {e.Message}");

@@ -21,8 +21,10 @@ internal static class Signals
     public const int Terminated = 143;
 
     /// <summary>Runs the command line with the process's SIGINT and SIGTERM turned into cancellation.</summary>
-    public static async Task<int> RunAsync(string[] args, TextWriter stdout, TextWriter stderr)
+    public static async Task<int> RunAsync(string[] args, TextWriter stdout, TextWriter stderrRaw)
     {
+        // the unwinding verb and a forced exit after the grace period can both reach the interruption line
+        var stderr = new InterruptedOnce(stderrRaw);
         using var cts = new CancellationTokenSource();
         var signalled = new TaskCompletionSource<int>(TaskCreationOptions.RunContinuationsAsynchronously);
         int received = 0;
@@ -53,8 +55,24 @@ internal static class Signals
     private static void Exit(TextWriter stderr, int code)
     {
         TempNames.RemoveHeld();
-        try { stderr.WriteLine("rankfreq: interrupted; no output written"); stderr.Flush(); }
+        try { stderr.WriteLine(CliApp.InterruptedLine); stderr.Flush(); }
         catch (IOException) { }
         Environment.Exit(code);
+    }
+
+    /// <summary>Passes lines through, except a repeat of <see cref="CliApp.InterruptedLine"/>.</summary>
+    private sealed class InterruptedOnce(TextWriter inner) : TextWriter
+    {
+        private int said;
+        public override System.Text.Encoding Encoding => inner.Encoding;
+        public override void Write(char value) => inner.Write(value);
+        public override void Write(string? value) => inner.Write(value);
+        public override void Write(char[] buffer, int index, int count) => inner.Write(buffer, index, count);
+        public override void WriteLine(string? value)
+        {
+            if (value == CliApp.InterruptedLine && Interlocked.Exchange(ref said, 1) != 0) return;
+            inner.WriteLine(value);
+        }
+        public override void Flush() => inner.Flush();
     }
 }
