@@ -35,6 +35,8 @@ public static class ForecastFields
         new("hapax", FieldKind.Real, p => p.Hapax, "hapax", "N0"),
         new("hapax_lo", FieldKind.Real, p => p.HapaxLo, "hapax 2.5%", "N0", Shown: false),
         new("hapax_hi", FieldKind.Real, p => p.HapaxHi, "hapax 97.5%", "N0", Shown: false),
+        new("hapax_models_min", FieldKind.Real, p => p.HapaxModelsMin, "hapax, lowest model", "N0", Shown: false),
+        new("hapax_models_max", FieldKind.Real, p => p.HapaxModelsMax, "hapax, highest model", "N0", Shown: false),
         new("dis", FieldKind.Real, p => p.Dis, "dis", "N0", Shown: false),
         new("coverage_types", FieldKind.Real, p => p.CoverageTypes, "vocabulary for coverage", "N0"),
         new("coverage_types_lo", FieldKind.Real, p => p.CoverageLo, "coverage 2.5%", "N0", Shown: false),

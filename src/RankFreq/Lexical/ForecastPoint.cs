@@ -22,6 +22,9 @@ namespace RankFreq.Lexical;
 /// towards their population vocabulary and tend to forecast too few types.</param>
 /// <param name="TypesModelsMax">Largest E[V(N)] among all fitted models: the Zipf–Mandelbrot model, with infinitely
 /// many types, tends to forecast too many. On held-out real text the truth lay between the two.</param>
+/// <param name="HapaxModelsMin">Smallest E[V_1(N)] among all fitted models.</param>
+/// <param name="HapaxModelsMax">Largest E[V_1(N)] among all fitted models: the spread between models, which says more
+/// about the uncertainty of a hapax forecast than the chosen model's bootstrap interval does.</param>
 public sealed record ForecastPoint(double Tokens, string Region, double Types, double TypesLo, double TypesHi, double TypesSd,
     double TypesExact, double Hapax, double HapaxLo, double HapaxHi, double Dis, double CoverageTypes, double CoverageLo,
-    double CoverageHi, double TypesModelsMin, double TypesModelsMax);
+    double CoverageHi, double TypesModelsMin, double TypesModelsMax, double HapaxModelsMin, double HapaxModelsMax);

@@ -30,7 +30,8 @@ public static class Forecaster
         "Hapaxes are the least reliable figure. Real text keeps adding rare types (names, rare forms) below the "
             + "frequencies a sample can show, and the finite models cut them off: forecasting the full size from a random "
             + "15% of two real corpora, the chosen model gave 31–37% too few hapaxes (and 6–9% too few types), the "
-            + "Zipf–Mandelbrot model about 32% too many. Treat the hapax forecast as a lower bound.",
+            + "Zipf–Mandelbrot model about 32% too many. Treat the hapax forecast as a lower bound, and "
+            + "hapax_models_min to hapax_models_max (the range over all models, where the truth lay) as its uncertainty.",
     ];
 
     /// <summary>Fits the models and computes the curve.</summary>
@@ -102,9 +103,11 @@ public static class Forecaster
             var (hl, hh) = Band(ok.Select(r => hapax[r][i]));
             var (cl, ch) = Band(ok.Select(r => cover[r][i]));
             string region = x < n ? "interpolation" : x == n ? "sample" : "extrapolation";
+            var hapaxByModel = fitted.Select(f => f.ExpectedSpectrum(x, 1)[1]).ToList();
             points[i] = new ForecastPoint(x, region, ev, tl, th, Math.Sqrt(Math.Max(0, model.ExpectedTypes(2 * x) - ev)),
                 exact[i], es[1], hl, hh, es[2],
-                model.CoverageTypes(o.Coverage, x), cl, ch, fitted.Min(f => f.ExpectedTypes(x)), fitted.Max(f => f.ExpectedTypes(x)));
+                model.CoverageTypes(o.Coverage, x), cl, ch, fitted.Min(f => f.ExpectedTypes(x)), fitted.Max(f => f.ExpectedTypes(x)),
+                hapaxByModel.Min(), hapaxByModel.Max());
         }
         return new ForecastResult(s.TokenCount, s.TypeCount, v1, fits, chosen, reason, points, o, ok.Count, Cautions);
     }

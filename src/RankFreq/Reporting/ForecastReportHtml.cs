@@ -20,7 +20,7 @@ public static partial class ReportHtml
         sb.Append($"<p>If more text of the same kind were collected, a {H(ModelName(chosen.Family))} model fitted to this "
             + $"sample's frequency spectrum expects the figures below. Why this model: {H(r.Reason)}.</p>");
         sb.Append("<div class=\"wide\"><table><thead><tr><th>size</th><th>tokens</th><th>types expected</th><th>95% interval</th>"
-            + "<th>all models</th><th>hapaxes</th>"
+            + "<th>all models</th><th>hapaxes</th><th>hapaxes, all models</th>"
             + $"<th>vocabulary for {F(100 * r.Options.Coverage, "0.#")}% of tokens</th></tr></thead><tbody>");
         var rows = new List<(string Size, ForecastPoint Point)>();
         if (r.Points.FirstOrDefault(p => p.Region == "sample") is { } here) rows.Add(("this sample", here));
@@ -32,13 +32,15 @@ public static partial class ReportHtml
             sb.Append($"<td class=\"n\" data-label=\"95% interval\">{Range(p.TypesLo, p.TypesHi)}</td>");
             sb.Append($"<td class=\"n\" data-label=\"all models\">{Range(p.TypesModelsMin, p.TypesModelsMax)}</td>");
             sb.Append($"<td class=\"n\" data-label=\"hapaxes\">{F(p.Hapax, "N0")}</td>");
+            sb.Append($"<td class=\"n\" data-label=\"hapaxes, all models\">{Range(p.HapaxModelsMin, p.HapaxModelsMax)}</td>");
             sb.Append($"<td class=\"n\" data-label=\"coverage vocabulary\">{F(p.CoverageTypes, "N0")}</td></tr>");
         }
         sb.Append("</tbody></table></div>");
         sb.Append($"<p class=\"note\">The interval is a parametric bootstrap over the fitted model ({r.RepsUsed} refits): it "
             + "covers the model's parameters only. \"All models\" is the range of every model that could be fitted; on "
             + "held-out real text the truth lay inside it while the chosen model was low. In this sample's own row the "
-            + "model reproduces the observed types exactly (it is fitted to do so).</p>");
+            + "model reproduces the observed types exactly (it is fitted to do so). Hapax forecasts are the least reliable: the chosen "
+            + "model tends to be low, and the range over all models says more about their uncertainty.</p>");
         Figures(sb, plots.Where(p => p.Name == "forecast"));
         sb.Append("<div class=\"caution\"><h3>Reading the forecast</h3><ul>");
         foreach (var c in r.Cautions) sb.Append($"<li>{H(c)}</li>");

@@ -65,6 +65,10 @@ public class ForecastCorpusTests(ITestOutputHelper output)
         Assert.NotEqual("zm", r.Chosen.Family);
         Assert.InRange(full.TypeCount, at.Types, zm.ExpectedTypes(full.TokenCount));
         Assert.InRange(v1, at.Hapax, zm.ExpectedSpectrum(full.TokenCount, 1)[1]);
+        // the point's range over all models holds the truth for both (the hapax range is what the cautions point to)
+        Assert.InRange(full.TypeCount, at.TypesModelsMin, at.TypesModelsMax);
+        Assert.InRange(v1, at.HapaxModelsMin, at.HapaxModelsMax);
+        Assert.InRange(at.Hapax, at.HapaxModelsMin, at.HapaxModelsMax);
         Assert.True(Math.Abs(errV) < 0.12, $"{corpus}: V forecast {at.Types:N0} vs {full.TypeCount:N0} ({errV:P1})");
         // the vocabulary covering 99% of tokens rests on the frequent types, which the sample shows well: within 5%
         // (measured −1.3% to −1.5%)
