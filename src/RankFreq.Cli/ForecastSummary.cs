@@ -23,6 +23,7 @@ internal static class ForecastSummary
         ConsoleTable.Rows(o, ForecastFields.Point, shown);
         o.WriteLine($"  intervals: 95% parametric bootstrap ({r.RepsUsed:N0} of {r.Options.Reps:N0} replicates refitted); "
             + $"vocabulary for coverage = types covering {r.Options.Coverage:P1} of the tokens");
+        if (r.SelfCheck is { } check) o.WriteLine($"  {check.Describe()}");
         foreach (var c in r.Cautions) o.WriteLine($"  ! {c}");
         foreach (var f in files) o.WriteLine($"  wrote {f}");
     }

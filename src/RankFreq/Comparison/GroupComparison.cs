@@ -1,6 +1,7 @@
 using System.Diagnostics;
 using RankFreq.Counting;
 using RankFreq.Fitting;
+using RankFreq.Lexical;
 
 namespace RankFreq.Comparison;
 

@@ -62,5 +62,24 @@ public static class ForecastFields
         ["fits"] = ResultFields.ToMaps(Fit, r.Fits),
         ["points"] = ResultFields.ToMaps(Point, r.Points),
         ["cautions"] = r.Cautions.ToList(),
+        ["self_check"] = SelfCheckMap(r.SelfCheck),
+    };
+
+    /// <summary>The self-check as JSON: errors are relative (−0.3 = 30% too few); null when it was not run.</summary>
+    public static Dictionary<string, object?>? SelfCheckMap(ForecastSelfCheck? c) => c is null ? null : new()
+    {
+        ["fraction"] = c.Fraction,
+        ["sample_tokens"] = (long)c.SampleTokens,
+        ["status"] = c.Status,
+        ["model"] = c.Family,
+        ["types"] = c.Types,
+        ["types_observed"] = (long)c.ObservedTypes,
+        ["types_error"] = c.TypesError,
+        ["hapax"] = c.Hapax,
+        ["hapax_observed"] = (long)c.ObservedHapax,
+        ["hapax_error"] = c.HapaxError,
+        ["hapax_models_min"] = c.HapaxModelsMin,
+        ["hapax_models_max"] = c.HapaxModelsMax,
+        ["summary"] = c.Describe(),
     };
 }

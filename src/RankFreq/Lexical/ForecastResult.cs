@@ -11,8 +11,11 @@ namespace RankFreq.Lexical;
 /// <param name="Options">The settings.</param>
 /// <param name="RepsUsed">Bootstrap replicates that refitted (the intervals rest on these).</param>
 /// <param name="Cautions">How the forecast can mislead, in words.</param>
+/// <param name="SelfCheck">The forecast tried on the sample itself from a random part of it (null when no model
+/// fitted the sample).</param>
 public sealed record ForecastResult(double Tokens, double Types, double Hapax, IReadOnlyList<LnreFit> Fits, LnreFit? Chosen,
-    string Reason, IReadOnlyList<ForecastPoint> Points, ForecastOptions Options, int RepsUsed, IReadOnlyList<string> Cautions)
+    string Reason, IReadOnlyList<ForecastPoint> Points, ForecastOptions Options, int RepsUsed, IReadOnlyList<string> Cautions,
+    ForecastSelfCheck? SelfCheck = null)
 {
     /// <summary>"ok" when a model fitted, otherwise the status of the chosen family's failure.</summary>
     public string Status => Chosen is not null ? "ok"

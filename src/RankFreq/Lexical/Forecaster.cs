@@ -109,7 +109,9 @@ public static class Forecaster
                 model.CoverageTypes(o.Coverage, x), cl, ch, fitted.Min(f => f.ExpectedTypes(x)), fitted.Max(f => f.ExpectedTypes(x)),
                 hapaxByModel.Min(), hapaxByModel.Max());
         }
-        return new ForecastResult(s.TokenCount, s.TypeCount, v1, fits, chosen, reason, points, o, ok.Count, Cautions);
+        ct.ThrowIfCancellationRequested();
+        var selfCheck = ForecastSelfCheck.Run(s, o, families);
+        return new ForecastResult(s.TokenCount, s.TypeCount, v1, fits, chosen, reason, points, o, ok.Count, Cautions, selfCheck);
     }
 
     /// <summary>The sample's own vocabulary covering a share q of its tokens: types taken from the most frequent down,

@@ -41,6 +41,7 @@ public static partial class ReportHtml
             + "held-out real text the truth lay inside it while the chosen model was low. In this sample's own row the "
             + "model reproduces the observed types exactly (it is fitted to do so). Hapax forecasts are the least reliable: the chosen "
             + "model tends to be low, and the range over all models says more about their uncertainty.</p>");
+        if (r.SelfCheck is { } check) sb.Append($"<p class=\"note\">{H(check.Describe())}</p>");
         Figures(sb, plots.Where(p => p.Name == "forecast"));
         sb.Append("<div class=\"caution\"><h3>Reading the forecast</h3><ul>");
         foreach (var c in r.Cautions) sb.Append($"<li>{H(c)}</li>");

@@ -1,6 +1,7 @@
 using RankFreq.Comparison;
 using RankFreq.Counting;
 using RankFreq.Fitting;
+using RankFreq.Lexical;
 using Xunit;
 
 namespace RankFreq.Tests.Comparison;

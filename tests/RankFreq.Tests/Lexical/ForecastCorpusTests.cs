@@ -74,5 +74,11 @@ public class ForecastCorpusTests(ITestOutputHelper output)
         // (measured −1.3% to −1.5%)
         Assert.True(Math.Abs(errC) < 0.05, $"{corpus}: 99% coverage {at.CoverageTypes:N0} vs {cover:N0} ({errC:P1})");
         Assert.True(Math.Abs(errV1) < 0.45, $"{corpus}: V1 forecast {at.Hapax:N0} vs {v1:N0} ({errV1:P1})");
+        // the self-check on the thinned sample alone (forecasting it from a random part of it) warns of the hapax
+        // shortfall with the same sign as the truth shows: the user can see it without the full corpus
+        var check = r.SelfCheck!;
+        output.WriteLine($"  {check.Describe()}");
+        Assert.Equal("ok", check.Status);
+        Assert.Equal(Math.Sign(errV1), Math.Sign(check.HapaxError));
     }
 }

@@ -162,6 +162,23 @@ public class LnreModelTests
     }
 
     [Fact]
+    public void SelfCheckOnAKnownPopulationIsSmallAndOnRealTextWarns()
+    {
+        // the self-check forecasts the sample from a random tenth of it. On a finite Zipf–Mandelbrot population the
+        // models describe, its errors must be small (types within 3%, hapaxes within 10%, as the forecast above)
+        var (s, _) = Population(300_000, 17);
+        var r = Forecaster.Run(s, new ForecastOptions([new ForecastTarget(10, true)], Points: 10, Reps: 0));
+        var c = r.SelfCheck!;
+        Assert.Equal("ok", c.Status);
+        Assert.Equal(0.1, c.Fraction, 12);
+        Assert.InRange(c.SampleTokens, 0.09 * s.TokenCount, 0.11 * s.TokenCount);
+        Assert.True(Math.Abs(c.TypesError) < 0.03, c.Describe());
+        Assert.True(Math.Abs(c.HapaxError) < 0.10, c.Describe());
+        Assert.InRange(c.Hapax, c.HapaxModelsMin, c.HapaxModelsMax);
+        Assert.Contains("random 10% of this sample", c.Describe());
+    }
+
+    [Fact]
     public void InterpolationFollowsTheExactInSampleExpectation()
     {
         // inside the sample the model curve must stay close to the exact hypergeometric E[V(M)] from the spectrum

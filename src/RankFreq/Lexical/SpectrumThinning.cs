@@ -2,7 +2,7 @@ using MathNet.Numerics;
 using RankFreq.Counting;
 using RankFreq.Fitting;
 
-namespace RankFreq.Comparison;
+namespace RankFreq.Lexical;
 
 /// <summary>
 /// Binomial thinning of a frequency spectrum: every token is kept independently with probability p, so a type seen
