@@ -33,7 +33,10 @@ public class RangeCutTokenizerJsonTests
         // the pre-tokenizer GPT-2's tokenizer.json ships: ByteLevel with its built-in regex (common practice)
         j["pre_tokenizer"] = new JsonObject
         {
-            ["type"] = "ByteLevel", ["add_prefix_space"] = false, ["trim_offsets"] = true, ["use_regex"] = true,
+            ["type"] = "ByteLevel",
+            ["add_prefix_space"] = false,
+            ["trim_offsets"] = true,
+            ["use_regex"] = true,
         };
         string path = d["gpt2-style.json"];
         File.WriteAllText(path, j.ToJsonString());
