@@ -6,7 +6,8 @@
 # work the two counts do not do; they write count tables instead). Inputs: the KJV (RANKFREQ_CORPORA) repeated REPEAT
 # times (default 5) as plain text, and sotu.jsonl twice, gzip-compressed (text field "text"); or BENCH_INPUT alone.
 # Each command's wall time and CPU time (user + system, from /usr/bin/time) are printed: on a loaded machine the CPU
-# time is the steadier figure.
+# time is the steadier figure. tokshift runs with --verbose, so its phase times (tokenizer loads, the paired count, the
+# fits, writing) are printed on stderr before each round's line.
 set -euo pipefail
 cd "$(dirname "$0")/../.."
 ROUNDS="${ROUNDS:-3}"; REPEAT="${REPEAT:-5}"; THREADS="${THREADS:-2}"
@@ -31,7 +32,7 @@ for r in $(seq 1 "$ROUNDS"); do
     for pair in "words o200k_base" "cl100k_base o200k_base"; do
       set -- $pair
       read -r tw tc <<< "$(run "$bin" tokshift "$input" --baseline "$1" --candidate "$2" --threads "$THREADS" --reps 0 \
-        --ci-reps 0 --alternatives none --json -q)"
+        --ci-reps 0 --alternatives none --json -q --verbose)"
       read -r aw ac <<< "$(run "$bin" count "$input" -t "$1" -o "$work/a.parquet" --threads "$THREADS" -q)"
       read -r bw bc_ <<< "$(run "$bin" count "$input" -t "$2" -o "$work/b.parquet" --threads "$THREADS" -q)"
       echo "round $r $(basename "$input") $1 vs $2: tokshift ${tw} s (cpu ${tc} s); counts ${aw} + ${bw} s" \

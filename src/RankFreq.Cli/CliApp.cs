@@ -53,7 +53,7 @@ public static class CliApp
 
     private static readonly Option<bool> VerboseOption = new("--verbose")
     {
-        Description = "On an internal error, print its full detail",
+        Description = "On an internal error, print its full detail; tokshift also prints the time of each phase",
         Recursive = true,
     };
 

@@ -57,6 +57,9 @@ internal static class ShiftVerb
                 var r = await Task.Run(() => ShiftJob.RunAsync(pr.GetValue(common.Inputs)!, settings, cp, ct), ct);
                 cp.Done();
                 foreach (var w in r.Warnings) stderr.WriteLine($"rankfreq: warning: {w}");
+                if (CliApp.Verbose)
+                    stderr.WriteLine("rankfreq: time " + string.Join(", ", r.Timings.Select(t =>
+                        $"{t.Phase} {t.Seconds.ToString("F2", CultureInfo.InvariantCulture)} s")));
                 if (pr.GetValue(common.Json)) stdout.WriteLine(JsonText.Write(ResultFields.ToMap(ShiftFields.Json, r.Shift)));
                 else if (!quiet) Write(stdout, r);
                 return CliApp.Ok;

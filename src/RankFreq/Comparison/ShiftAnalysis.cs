@@ -25,16 +25,21 @@ public static class ShiftAnalysis
         var s = counts.Spectrum;
         int vocab = tokenizer.VocabularySize;
         long? seenCount = null;
-        var unseen = new List<UnseenEntry>();
+        IReadOnlyList<UnseenEntry> unseen = [];
         if (vocab > 0)
         {
             var seen = new bool[vocab];
             foreach (var b in counts.Rows.Batches())
                 foreach (int id in b.TokenIds ?? [])
                     if ((uint)id < (uint)vocab) seen[id] = true;
-            seenCount = seen.LongCount(x => x);
-            for (int id = 0; id < vocab; id++)
-                if (!seen[id]) unseen.Add(new UnseenEntry(id, tokenizer.DisplayToken(id)));
+            int n = 0;
+            foreach (bool x in seen) n += x ? 1 : 0;
+            seenCount = n;
+            var ids = new int[vocab - n];
+            for (int id = 0, k = 0; id < vocab; id++)
+                if (!seen[id]) ids[k++] = id;
+            // readable forms are made when the list is written, not here
+            unseen = new UnseenList(ids, tokenizer.DisplayToken);
         }
         var fit = s.TypeCount == 0
             ? throw new FitInputException($"{tokenizer.Spec}: the text gave no tokens")

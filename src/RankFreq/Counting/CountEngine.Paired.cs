@@ -58,6 +58,10 @@ public static partial class CountEngine
         int threads = settings.EffectiveThreads;
         var units = InputPlanner.Plan(files, CommonCut(first.RangeCut, second.RangeCut), threads > 1 ? threads * 8 : 1,
             settings.SplitAboveBytes);
+        // fewer work units than threads (one compressed file, say): each pair of workers takes two threads, the second
+        // tokenizer fed through a pipe on a thread of its own, so the cores do not wait on one unit's reader
+        bool piped = threads >= 2 && units.Count < threads;
+        int slots = piped ? Math.Max(1, Math.Min(units.Count, threads / 2)) : threads;
         long totalBytes = files.Sum(f => f.Length);
         var (tokensA, tokensB) = (new long[units.Count], new long[units.Count]);
         var (spillA, spillB) = (new SpillSet(settings.TempDirectory), new SpillSet(settings.TempDirectory));
@@ -72,17 +76,18 @@ public static partial class CountEngine
         try
         {
             Parallel.ForEach(Partitioner.Create(units, EnumerablePartitionerOptions.NoBuffering),
-                new ParallelOptions { MaxDegreeOfParallelism = threads, CancellationToken = ct },
+                new ParallelOptions { MaxDegreeOfParallelism = slots, CancellationToken = ct },
                 () =>
                 {
-                    var p = new PairWorker(new Worker(first, spillA, budget / threads), new Worker(second, spillB, budget / threads));
+                    var b = new Worker(second, spillB, budget / slots);
+                    var p = new PairWorker(new Worker(first, spillA, budget / slots), b, piped ? new BlockPipe(b, ct) : null);
                     lock (pairs) pairs.Add(p);
                     return p;
                 },
                 (unit, _, p) =>
                 {
                     p.A.Begin(unit.Index);
-                    p.B.Begin(unit.Index);
+                    p.OnB(() => p.B.Begin(unit.Index));
                     if (groups is { PerFile: true }) p.BeginGroup(groups.LabelOfFile(unit.File.Path));
                     InputReader.Read(unit, source, p, p.A.Stats, n =>
                     {
@@ -90,10 +95,12 @@ public static partial class CountEngine
                         if (unit.File.IsStdin) Interlocked.Add(ref stdinBytes[0], n);
                     }, ct);
                     p.EndGroup();
-                    (tokensA[unit.Index], tokensB[unit.Index]) = (p.A.End(), p.B.End());
+                    tokensA[unit.Index] = p.A.End();
+                    p.OnB(() => tokensB[unit.Index] = p.B.End());
                     return p;
                 },
-                _ => { });
+                p => p.Finish());
+            foreach (var p in pairs) p.ThrowIfFaulted();
             // the reader kept one set of counters per worker; both sides report the same text
             foreach (var p in pairs) p.B.Stats.Add(p.A.Stats);
             Pass Side(ITokenizer t, long[] unitTokens, IEnumerable<Worker> workers, SpillSet spill) =>
@@ -104,6 +111,7 @@ public static partial class CountEngine
         }
         catch (Exception e)
         {
+            foreach (var p in pairs) p.Finish();
             a?.Dispose();
             spillA.Dispose();
             spillB.Dispose();
@@ -126,8 +134,10 @@ public static partial class CountEngine
                 g.Sum(x => x.Value[3])))
             .ToList();
 
-    /// <summary>Hands each block to both workers' sessions, and keeps per-group totals when documents report a group.</summary>
-    private sealed class PairWorker(Worker a, Worker b) : ITextSink, IGroupSink
+    /// <summary>Hands each block to both workers' sessions, and keeps per-group totals when documents report a group.
+    /// With a pipe, the second worker runs on the pipe's thread: everything it does goes through <see cref="OnB"/>.
+    /// </summary>
+    private sealed class PairWorker(Worker a, Worker b, BlockPipe? pipe) : ITextSink, IGroupSink
     {
         private long[]? _group;
         private long _bytesFrom, _aFrom, _bFrom;
@@ -142,8 +152,22 @@ public static partial class CountEngine
         {
             TextBytes += utf8.Length;
             a.Write(utf8, endOfDocument);
-            b.Write(utf8, endOfDocument);
+            if (pipe is null) b.Write(utf8, endOfDocument);
+            else pipe.Write(utf8, endOfDocument);
         }
+
+        /// <summary>Runs a step of the second worker in order with its text: now, or on the pipe's thread.</summary>
+        public void OnB(Action step)
+        {
+            if (pipe is null) step();
+            else pipe.Post(step);
+        }
+
+        /// <summary>Waits until the second worker has taken all its text (no-op without a pipe); does not throw.</summary>
+        public void Finish() => pipe?.Finish();
+
+        /// <summary>Throws what the second worker threw on the pipe's thread, if anything.</summary>
+        public void ThrowIfFaulted() => pipe?.ThrowIfFaulted();
 
         /// <summary>Documents start only between calls, so every token of the previous one has been counted.</summary>
         public void BeginGroup(string label)
@@ -151,7 +175,8 @@ public static partial class CountEngine
             EndGroup();
             if (!Groups.TryGetValue(label, out var g)) Groups[label] = g = new long[4];
             g[0]++;
-            (_group, _bytesFrom, _aFrom, _bFrom) = (g, TextBytes, a.Tokens, b.Tokens);
+            (_group, _bytesFrom, _aFrom) = (g, TextBytes, a.Tokens);
+            OnB(() => _bFrom = b.Tokens);
         }
 
         public void EndGroup()
@@ -159,7 +184,8 @@ public static partial class CountEngine
             if (_group is not { } g) return;
             g[1] += TextBytes - _bytesFrom;
             g[2] += a.Tokens - _aFrom;
-            g[3] += b.Tokens - _bFrom;
+            // g[3] is written only on the second worker's thread, the other entries only on this one
+            OnB(() => g[3] += b.Tokens - _bFrom);
             _group = null;
         }
     }

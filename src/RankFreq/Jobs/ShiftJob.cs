@@ -1,3 +1,5 @@
+using System.Diagnostics;
+using System.Runtime.ExceptionServices;
 using RankFreq.Comparison;
 using RankFreq.Counting;
 using RankFreq.Reporting;
@@ -11,7 +13,12 @@ namespace RankFreq.Jobs;
 /// <param name="Shift">The figures of both sides and their differences.</param>
 /// <param name="Files">Files written (empty without an output folder).</param>
 /// <param name="Warnings">Inputs skipped and why.</param>
-public sealed record ShiftJobResult(ShiftResult Shift, IReadOnlyList<string> Files, IReadOnlyList<string> Warnings);
+public sealed record ShiftJobResult(ShiftResult Shift, IReadOnlyList<string> Files, IReadOnlyList<string> Warnings)
+{
+    /// <summary>Wall time of each phase, in order (loading the tokenizers, counting, comparing, writing), for a user
+    /// asking where the time went.</summary>
+    public IReadOnlyList<(string Phase, double Seconds)> Timings { get; init; } = [];
+}
 
 /// <summary>
 /// "What does this new tokenizer do to our distribution?": counts the same inputs with a baseline and a candidate
@@ -35,8 +42,16 @@ public static class ShiftJob
         if (s.OutputDirectory is not null) source = source.Skipping(s.OutputDirectory);
         if (s.Key is not null) source = source with { Group = s.Key };
         var warnings = new List<string>();
-        var baseTok = TokenizerFactory.Create(s.Baseline);
-        var candTok = TokenizerFactory.Create(s.Candidate);
+        var clock = Stopwatch.StartNew();
+        var timings = new List<(string, double)>();
+        void Phase(string name)
+        {
+            timings.Add((name, clock.Elapsed.TotalSeconds));
+            clock.Restart();
+        }
+        // the two vocabularies load side by side (a tiktoken or tokenizer.json load takes a few tenths of a second)
+        var (baseTok, candTok) = await BothAsync(() => TokenizerFactory.Create(s.Baseline), () => TokenizerFactory.Create(s.Candidate));
+        Phase("load tokenizers");
         var (files, skipped) = InputPlanner.Expand(inputs, source);
         if (s.Key is not null) ContrastJob.CheckFormats(files, s.Key);
         var count = s.Count with { Source = source };
@@ -47,9 +62,13 @@ public static class ShiftJob
             if (s.Key is not null) ContrastJob.CheckKeyFound(pair.Groups.Select(g => g.Group), files, s.Key);
             summary = pair.First.Summary;
             warnings.AddRange(CountJob.Warnings(summary));
-            var b = ShiftAnalysis.Describe(pair.First, baseTok, s.Options, ct, pair.TextBytes);
-            var c = ShiftAnalysis.Describe(pair.Second, candTok, s.Options, ct, pair.TextBytes);
+            Phase("count both");
+            // the two sides' figures and fits are independent (each fit's draws are seeded by replicate), so they run
+            // side by side: the sequential parts of one (xmin search, alternatives) overlap the other's
+            var (b, c) = await BothAsync(() => ShiftAnalysis.Describe(pair.First, baseTok, s.Options, ct, pair.TextBytes),
+                () => ShiftAnalysis.Describe(pair.Second, candTok, s.Options, ct, pair.TextBytes));
             shift = ShiftAnalysis.Compare(b, c);
+            Phase("fit and compare");
             if (s.Key is { } key)
                 shift = shift with
                 {
@@ -93,7 +112,24 @@ public static class ShiftJob
             ct.ThrowIfCancellationRequested();
             folder.Publish();
             written = written.Select(folder.Final).ToList();
+            Phase("write");
         }
-        return new ShiftJobResult(shift, written, warnings);
+        return new ShiftJobResult(shift, written, warnings) { Timings = timings };
+    }
+
+    /// <summary>Runs <paramref name="first"/> on the thread pool while <paramref name="second"/> runs here; when both
+    /// fail, the first's exception leaves, as if they had run one after the other.</summary>
+    private static async Task<(T First, T Second)> BothAsync<T>(Func<T> first, Func<T> second)
+    {
+        var a = Task.Run(first, CancellationToken.None);
+        T b;
+        try { b = second(); }
+        catch
+        {
+            await ((Task)a).ConfigureAwait(ConfigureAwaitOptions.SuppressThrowing);
+            if (a.Exception?.InnerException is { } e) ExceptionDispatchInfo.Capture(e).Throw();
+            throw;
+        }
+        return (await a, b);
     }
 }

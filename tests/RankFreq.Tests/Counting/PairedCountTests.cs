@@ -10,16 +10,17 @@ namespace RankFreq.Tests.Counting;
 
 public class PairedCountTests
 {
-    private static Dictionary<string, long> Table(ICountRows rows) =>
+    internal static Dictionary<string, long> Table(ICountRows rows) =>
         CountingTests.Rows(rows).ToDictionary(p => p.Token!, p => p.Count);
 
-    private static PairedCountResult Pair(string a, string b, string path, CountSettings s, GroupKey? key = null)
+    internal static PairedCountResult Pair(string a, string b, string path, CountSettings s, GroupKey? key = null,
+        CancellationToken ct = default)
     {
         var source = s.Source ?? new SourceOptions();
         if (key is not null) source = source with { Group = key };
         var (files, skipped) = InputPlanner.Expand([path], source);
         return CountEngine.CountPair(TokenizerFactory.Create(a), TokenizerFactory.Create(b), files, skipped,
-            s with { Source = source }, key);
+            s with { Source = source }, key, ct: ct);
     }
 
     [Theory]
