@@ -40,10 +40,9 @@ public static class Samplers
         }
         if (p > 0.5) return k + n - Binomial(rng, n, 1 - p);
         // waiting times: gaps between successes are geometric
-        // for tiny p, 1 − p rounds to 1 and its log to 0 (an endless loop of infinite gaps): the series
-        // ln(1 − p) = −p − p²/2 − p³/3 − … keeps it (truncation below 1e-18 relative here; .NET's LogP1 is ln(1 + x)
-        // computed as written, no help). Positions are doubles, so a gap far beyond n cannot overflow.
-        double lq = p < 1e-6 ? -p * (1 + p * (0.5 + p / 3)) : Math.Log(1 - p);
+        // for tiny p, 1 − p rounds to 1 and its log to 0 (an endless loop of infinite gaps): LogMath keeps it.
+        // Positions are doubles, so a gap far beyond n cannot overflow.
+        double lq = p < 1e-6 ? LogMath.Log1p(-p) : Math.Log(1 - p);
         double pos = 0;
         while (true)
         {

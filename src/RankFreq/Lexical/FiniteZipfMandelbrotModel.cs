@@ -1,4 +1,5 @@
 using MathNet.Numerics;
+using RankFreq.Fitting;
 
 namespace RankFreq.Lexical;
 
@@ -45,8 +46,8 @@ public sealed record FiniteZipfMandelbrotModel(double Alpha, double A, double B)
     {
         double a = Alpha, na = n * A, nb = n * B;
         double band = Math.Exp(a * Math.Log(n) + SpecialFunctions.GammaLn(1 - a)) * IncompleteGamma.Band(1 - a, na, nb);
-        double low = A > 0 ? -double.ExpM1(-na) * Math.Pow(A, -a) : 0;
-        return C / a * (band + low + double.ExpM1(-nb) * Math.Pow(B, -a));
+        double low = A > 0 ? -LogMath.Expm1(-na) * Math.Pow(A, -a) : 0;
+        return C / a * (band + low + LogMath.Expm1(-nb) * Math.Pow(B, -a));
     }
 
     /// <inheritdoc/>

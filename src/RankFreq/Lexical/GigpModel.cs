@@ -1,4 +1,5 @@
 using MathNet.Numerics;
+using RankFreq.Fitting;
 
 namespace RankFreq.Lexical;
 
@@ -46,7 +47,7 @@ public sealed record GigpModel(double Gamma, double B, double C) : LnreModel
     {
         double u = 1 + n * C, x = B * Math.Sqrt(u);
         double lnRatio = -Gamma / 2 * Math.Log(u) + LogBesselK(Gamma, x) - LogBesselK(Gamma, B);
-        return PopulationTypes * -double.ExpM1(lnRatio);
+        return PopulationTypes * -LogMath.Expm1(lnRatio);
     }
 
     /// <inheritdoc/>

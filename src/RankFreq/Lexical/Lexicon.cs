@@ -1,6 +1,7 @@
 using System.Globalization;
 using MathNet.Numerics;
 using RankFreq.Counting;
+using RankFreq.Fitting;
 
 namespace RankFreq.Lexical;
 
@@ -49,7 +50,7 @@ public static class Lexicon
             long f = s.Values[i];
             if (n - f < m) break; // such a type (and every more frequent one) is always present
             if (f - at <= 64)
-                for (long j = at; j < f; j++) ln += double.LogP1(-(double)m / (n - j));
+                for (long j = at; j < f; j++) ln += LogMath.Log1p(-(double)m / (n - j));
             else ln = SpecialFunctions.GammaLn(n - f + 1) - SpecialFunctions.GammaLn(n - f - m + 1) - lnDen;
             at = f;
             if (ln < -746) break; // e^ln is 0 in double precision, and so is every later term
