@@ -16,6 +16,15 @@ internal static class RankBuilder
     {
         if (spill.Phase1.Count == 0 && InMemoryBytes(tables) <= budget)
         {
+            var filled = tables.Where(t => t.Count > 0).ToList();
+            if (filled.Count > 1)
+            {
+                // several workers' tables: sorted side by side and merged in order (no hash-table merge)
+                var (mergedTokens, mergedCounts, mergedIds) = SortedMerge.Rank(filled, growth, withIds);
+                foreach (var t in tables) t.Clear();
+                spill.Dispose();
+                return (new InMemoryRows(mergedTokens, mergedIds, mergedCounts), FrequencySpectrum.FromCounts(mergedCounts));
+            }
             var all = tables.OrderByDescending(t => t.Count).ToList();
             var main = all[0];
             for (int i = 1; i < all.Count; i++) { main.MergeFrom(all[i]); all[i].Clear(); }

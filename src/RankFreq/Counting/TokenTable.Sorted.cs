@@ -40,6 +40,18 @@ internal sealed unsafe partial class TokenTable
         }
     }
 
+    /// <summary>
+    /// Frees the slots of a table whose counting is over (counts are copied into the entries first): entries and keys
+    /// stay readable; nothing may be added until <see cref="Clear"/>.
+    /// </summary>
+    internal void FreeSlots()
+    {
+        if (_dirty) SyncCounts();
+        NativeBlock.Free(_slots, (long)_slotCount * sizeof(Slot));
+        _slots = null;
+        _slotCount = 0;
+    }
+
     /// <summary>Whether any key was added with a vocabulary id (otherwise every id is -1).</summary>
     private bool _hasIds;
 
@@ -64,6 +76,15 @@ internal sealed unsafe partial class TokenTable
 
         /// <summary>The first position (packed) of the type at position <paramref name="i"/>.</summary>
         public long FirstAt(int i) => _keys[i].First;
+
+        /// <summary>Key bytes 0–7 of the type at position <paramref name="i"/> as a big-endian word (zero-padded).</summary>
+        public ulong AAt(int i) => _keys[i].A;
+
+        /// <summary>Key bytes 8–15 of the type at position <paramref name="i"/> as a big-endian word (zero-padded).</summary>
+        public ulong BAt(int i) => _keys[i].B;
+
+        /// <summary>The key length in bytes of the type at position <paramref name="i"/>.</summary>
+        public int LenAt(int i) => _keys[i].Len;
 
         /// <summary>The entry index (insertion order) of the type at position <paramref name="i"/>.</summary>
         public int IndexAt(int i) => _keys[i].Index;
