@@ -116,18 +116,29 @@ internal static class SortedMerge
         int live = 0;
         for (int p = 0; p < k; p++)
             if (parts[p].Length > 0) heads[live++] = Load(parts[p], p, 0);
+        Span<bool> same = stackalloc bool[k];
         while (live > 0)
         {
-            // the smallest key among the heads (k is the thread count: a linear scan beats a heap)
+            // the smallest key among the heads and which heads hold it, one comparison per other head (k is the
+            // thread count: a linear scan beats a heap)
             int m = 0;
+            same[0] = true;
             for (int i = 1; i < live; i++)
-                if (Compare(tables, heads[i], heads[m]) < 0) m = i;
+            {
+                int c = Compare(tables, heads[i], heads[m]);
+                if (c < 0)
+                {
+                    same[..i].Clear();
+                    m = i;
+                }
+                same[i] = c <= 0;
+            }
             var min = heads[m];
             long count = 0, first = long.MaxValue;
             int id = -1;
             for (int i = 0; i < live; i++)
             {
-                if (i != m && Compare(tables, heads[i], min) != 0) continue;
+                if (!same[i]) continue;
                 var part = parts[heads[i].Part];
                 int pos = heads[i].Pos;
                 count += part.CountAt(pos);
@@ -135,17 +146,15 @@ internal static class SortedMerge
                 if (id == -1) id = part.IdAt(pos);
             }
             visit(min, count, first, id);
-            // advance every head that held this key (compared, not by slot: a finished head's slot takes another)
-            for (int i = 0; i < live; i++)
+            // advance the heads that held the key, from the last: a finished head's slot takes the last head, which
+            // has been dealt with already
+            for (int i = live - 1; i >= 0; i--)
             {
-                if (Compare(tables, heads[i], min) != 0) continue;
+                if (!same[i]) continue;
+                same[i] = false;
                 var part = parts[heads[i].Part];
                 if (heads[i].Pos + 1 < part.Length) heads[i] = Load(part, heads[i].Part, heads[i].Pos + 1);
-                else
-                {
-                    heads[i] = heads[--live];
-                    i--;
-                }
+                else heads[i] = heads[--live];
             }
         }
     }
