@@ -161,7 +161,12 @@ internal static class SortedMerge
 
     private static Cursor Load(TokenTable.SortedTypes part, int p, int pos) => new()
     {
-        Part = p, Pos = pos, A = part.AAt(pos), B = part.BAt(pos), Len = part.LenAt(pos), Index = part.IndexAt(pos),
+        Part = p,
+        Pos = pos,
+        A = part.AAt(pos),
+        B = part.BAt(pos),
+        Len = part.LenAt(pos),
+        Index = part.IndexAt(pos),
     };
 
     /// <summary>Ordinal order of the key bytes: packed big-endian words first, the arena beyond 16 bytes.</summary>
