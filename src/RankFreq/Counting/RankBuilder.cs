@@ -28,6 +28,7 @@ internal static class RankBuilder
             var all = tables.OrderByDescending(t => t.Count).ToList();
             var main = all[0];
             for (int i = 1; i < all.Count; i++) { main.MergeFrom(all[i]); all[i].Clear(); }
+            main.FreeSlots(); // the slots are not read again: free them before the sort records are made
             var sorted = main.Sorted(byCount: true);
             int n = sorted.Length;
             var tokens = new string?[n];

@@ -33,8 +33,8 @@ internal static class SortedMerge
         {
             Parallel.For(0, tables.Count, i =>
             {
-                parts[i] = tables[i].Sorted(byCount: false);
                 tables[i].FreeSlots(); // probing is over; the slots are most of a table's memory
+                parts[i] = tables[i].Sorted(byCount: false);
             });
 
             // pass 1: how many types of each count, and the types of large counts
