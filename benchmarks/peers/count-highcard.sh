@@ -7,7 +7,7 @@
 # Peak RSS is the kernel's figure for the child (GNU time %M, KiB). Per-type figures: RSS / types, and
 # (RSS - 150 MiB) / types, the issue's "bytes per type above a 150 MB base".
 # Environment: TOKENS (default 2e7), ZIPF_S (1.05), UNIQUE_TOKENS (6e6), SKIP_BUILD=1 to reuse the builds,
-# BIG=1 to add the 2 GB concatenation under --memory 1GB (slow: minutes).
+# BIG=1 to add the 2 GB concatenation under --memory 1GB (slow: minutes), UNIQUE=0 to leave out the near-unique input.
 set -euo pipefail
 cd "$(dirname "$0")/../.."
 work=benchmarks/work; mkdir -p "$work"
@@ -20,7 +20,7 @@ nat="$work/native/rankfreq"
 tools() { dotnet benchmarks/RankFreq.Benchmarks/bin/Release/net10.0/linux-x64/RankFreq.Benchmarks.dll tools "$@"; }
 zipf="$work/highcard-zipf-$tokens-$s.txt"; unique="$work/highcard-unique-$utokens.txt"
 [ -s "$zipf" ] || tools make-highcard "$zipf" "$tokens" zipf "$s" 1
-[ -s "$unique" ] || tools make-highcard "$unique" "$utokens" unique 1.1 1
+[ -s "$unique" ] || [ "${UNIQUE:-1}" = 0 ] || tools make-highcard "$unique" "$utokens" unique 1.1 1
 echo "date: $(date -u '+%Y-%m-%d %H:%M UTC'); load: $(uptime | sed 's/.*load average: //'); $(nproc) cores;" \
   "awk is $(readlink -f "$(command -v awk)"); sort locale: ${LC_ALL:-${LANG:-unset}}"
 
@@ -37,7 +37,8 @@ run() {
 perType() { echo "scale=0; $1 * 1024 / $2" | bc; }
 above() { echo "scale=0; ($1 - 153600) * 1024 / $2" | bc; }
 
-for input in "$zipf" "$unique"; do
+inputs=("$zipf"); [ "${UNIQUE:-1}" = 0 ] || inputs+=("$unique")
+for input in "${inputs[@]}"; do
   echo
   echo "input: $input, $(( $(stat -L -c %s "$input") / 1000000 )) MB"
   printf '%-34s %10s %10s %12s %s\n' contender wall cpu 'peak RSS' '  notes'

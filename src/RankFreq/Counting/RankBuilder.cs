@@ -16,28 +16,38 @@ internal static class RankBuilder
     {
         if (spill.Phase1.Count == 0 && InMemoryBytes(tables) <= budget)
         {
+            var filled = tables.Where(t => t.Count > 0).ToList();
+            if (filled.Count > 1)
+            {
+                // several workers' tables: sorted side by side and merged in order (no hash-table merge)
+                var (mergedTokens, mergedCounts, mergedIds) = SortedMerge.Rank(filled, growth, withIds);
+                foreach (var t in tables) t.Clear();
+                spill.Dispose();
+                return (new InMemoryRows(mergedTokens, mergedIds, mergedCounts), FrequencySpectrum.FromCounts(mergedCounts));
+            }
             var all = tables.OrderByDescending(t => t.Count).ToList();
             var main = all[0];
             for (int i = 1; i < all.Count; i++) { main.MergeFrom(all[i]); all[i].Clear(); }
-            var idx = main.IndicesByRank();
-            var tokens = new string?[idx.Length];
-            var counts = new long[idx.Length];
-            var ids = withIds ? new int[idx.Length] : null;
-            var entries = main.Entries;
-            for (int r = 0; r < idx.Length; r++)
+            main.FreeSlots(); // the slots are not read again: free them before the sort records are made
+            var sorted = main.Sorted(byCount: true);
+            int n = sorted.Length;
+            var tokens = new string?[n];
+            var counts = new long[n];
+            var ids = withIds ? new int[n] : null;
+            for (int r = 0; r < n; r++)
             {
-                ref readonly var e = ref entries[idx[r]];
-                counts[r] = e.Count;
-                if (ids is not null) ids[r] = e.Id;
-                growth.Add(e.First);
+                counts[r] = sorted.CountAt(r);
+                if (ids is not null) ids[r] = sorted.IdAt(r);
+                growth.Add(sorted.FirstAt(r));
             }
-            // the strings, on all cores (reads only)
-            Parallel.For(0, (idx.Length + 8191) / 8192, part =>
+            // the strings, on all cores (reads only), from the sort records in rank order
+            Parallel.For(0, (n + 8191) / 8192, part =>
             {
-                var es = main.Entries;
-                for (int r = part * 8192, end = Math.Min(idx.Length, r + 8192); r < end; r++)
-                    tokens[r] = Encoding.UTF8.GetString(main.Key(es[idx[r]]));
+                Span<byte> buffer = stackalloc byte[16];
+                for (int r = part * 8192, end = Math.Min(n, r + 8192); r < end; r++)
+                    tokens[r] = Encoding.UTF8.GetString(sorted.KeyAt(r, buffer));
             });
+            sorted.Dispose();
             main.Clear();
             spill.Dispose();
             return (new InMemoryRows(tokens, ids, counts), FrequencySpectrum.FromCounts(counts));
@@ -52,11 +62,7 @@ internal static class RankBuilder
             if (buffer.Count == 0) return;
             string path = spill.NewPath();
             using (var w = new RunWriter(path))
-                foreach (int i in buffer.IndicesByRank())
-                {
-                    ref readonly var e = ref buffer.Entries[i];
-                    w.Write(buffer.Key(e), e.Count, e.First, e.Id);
-                }
+                SpillSet.WriteSorted(w, buffer, byCount: true);
             phase2.Add(path);
             buffer.Clear();
         }
@@ -88,7 +94,8 @@ internal static class RankBuilder
     /// <summary>
     /// Bytes that ranking <paramref name="tables"/> in memory may hold at its peak: the tables, the merged table
     /// growing to at most their summed types (slots at 1/4 to 1/2 load side by side with the doubled array, and
-    /// entries), the sort, and per type a managed string (about 32 bytes plus two per key byte) and its count.
+    /// entries), the sort records (40 bytes), and per type a managed string (about 32 bytes plus two per key byte)
+    /// and its count.
     /// </summary>
     internal static long InMemoryBytes(IReadOnlyList<TokenTable> tables)
     {
@@ -99,7 +106,7 @@ internal static class RankBuilder
             types += t.Count;
             foreach (ref readonly var e in t.Entries) keyBytes += e.Len;
         }
-        return held + types * (4 * 32 + 32 + 44 + 32 + 8) + 2 * keyBytes;
+        return held + types * (4 * 32 + 32 + 52 + 32 + 8) + 2 * keyBytes;
     }
 
     /// <summary>Rows per batch read back from rank-ordered runs: about 256 bytes of batch per row within the budget.</summary>

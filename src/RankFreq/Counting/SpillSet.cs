@@ -38,11 +38,7 @@ internal sealed class SpillSet(string? root) : IDisposable
         try
         {
             using (var w = new RunWriter(path))
-                foreach (int i in table.IndicesByKey())
-                {
-                    var e = table.Entries[i];
-                    w.Write(table.Key(e), e.Count, e.First, e.Id);
-                }
+                WriteSorted(w, table, byCount: false);
         }
         catch (IOException e)
         {
@@ -52,6 +48,15 @@ internal sealed class SpillSet(string? root) : IDisposable
         }
         lock (_gate) Phase1.Add(path);
         table.Clear();
+    }
+
+    /// <summary>Writes every type of <paramref name="table"/> to a run in key or rank order, in one sequential pass.</summary>
+    internal static void WriteSorted(RunWriter w, TokenTable table, bool byCount)
+    {
+        using var sorted = table.Sorted(byCount);
+        Span<byte> buffer = stackalloc byte[16];
+        for (int i = 0; i < sorted.Length; i++)
+            w.Write(sorted.KeyAt(i, buffer), sorted.CountAt(i), sorted.FirstAt(i), sorted.IdAt(i));
     }
 
     public void Dispose()

@@ -20,7 +20,7 @@ namespace RankFreq.Counting;
 /// <see cref="AddShort"/> sets a type's first position only when it inserts it: callers feed one table positions in
 /// increasing order (a worker meets its work units in corpus order), so a later occurrence never lowers it.
 /// </remarks>
-internal sealed unsafe class TokenTable : IDisposable
+internal sealed unsafe partial class TokenTable : IDisposable
 {
     internal struct Slot
     {
@@ -97,6 +97,7 @@ internal sealed unsafe class TokenTable : IDisposable
         _entryCap = 0;
         _count = 0;
         _dirty = false;
+        _hasIds = false;
     }
 
     /// <summary>Frees the table's memory; the table must not be used afterwards.</summary>
@@ -268,6 +269,7 @@ internal sealed unsafe class TokenTable : IDisposable
             _entryCap *= 2;
         }
         _entries[_count] = new Entry { Ref = Store(key), Len = key.Length, Id = id, Count = count, First = first };
+        if (id != -1) _hasIds = true;
         _count++;
         s.K0 = k0;
         s.K1 = k1;
@@ -335,36 +337,18 @@ internal sealed unsafe class TokenTable : IDisposable
 
     private int[] SortedIndices(bool byCount)
     {
-        var entries = Entries;
-        int n = entries.Length;
-        // the sort keys live in a native block, freed as soon as the order is read off
-        var keys = (SortKey*)NativeBlock.Alloc((long)Math.Max(1, n) * sizeof(SortKey));
-        try
-        {
-            for (int i = 0; i < n; i++)
-            {
-                var k = Key(entries[i]);
-                KeyPacking.Pack16(k[..Math.Min(16, k.Length)], out ulong a, out ulong b);
-                // little-endian packed words byte-reversed: the first byte becomes the most significant
-                keys[i] = new SortKey(byCount ? entries[i].Count : 0, BinaryPrimitives.ReverseEndianness(a),
-                    BinaryPrimitives.ReverseEndianness(b), k.Length, i);
-            }
-            new SortKeyComparer(this).SortParallel(keys, n);
-            var idx = new int[n];
-            for (int i = 0; i < idx.Length; i++) idx[i] = keys[i].Index;
-            return idx;
-        }
-        finally
-        {
-            NativeBlock.Free(keys, (long)Math.Max(1, n) * sizeof(SortKey));
-        }
+        using var sorted = Sorted(byCount);
+        var idx = new int[sorted.Length];
+        for (int i = 0; i < idx.Length; i++) idx[i] = sorted.IndexAt(i);
+        return idx;
     }
 
     /// <summary>
     /// A key's sort form: count, then its first 16 bytes as two big-endian words (zero-padded), so most comparisons
-    /// of keys never reach the arena. Zero padding keeps ordinal order: a prefix pads with the smallest byte.
+    /// of keys never reach the arena. Zero padding keeps ordinal order: a prefix pads with the smallest byte. The
+    /// first position rides along, so reading the sorted types needs the entries only for keys over 16 bytes.
     /// </summary>
-    private readonly record struct SortKey(long Count, ulong A, ulong B, int Len, int Index);
+    private readonly record struct SortKey(long Count, ulong A, ulong B, long First, int Len, int Index);
 
     /// <summary>
     /// Orders sort keys by <see cref="RankOrder"/> (or by key alone), comparing packed key words before the arena
@@ -373,11 +357,11 @@ internal sealed unsafe class TokenTable : IDisposable
     /// first unoptimised). Quicksort with median-of-three pivots and insertion sort below 24 elements; recursion on the
     /// smaller side only, so the stack stays O(log n).
     /// </summary>
-    private readonly struct SortKeyComparer(TokenTable t)
+    private readonly struct SortKeyComparer(TokenTable t, bool byCount)
     {
         public int Compare(in SortKey x, in SortKey y)
         {
-            if (x.Count != y.Count) return x.Count > y.Count ? -1 : 1;
+            if (byCount && x.Count != y.Count) return x.Count > y.Count ? -1 : 1;
             if (x.A != y.A) return x.A < y.A ? -1 : 1;
             if (x.B != y.B) return x.B < y.B ? -1 : 1;
             if (x.Len <= 16 && y.Len <= 16) return x.Len.CompareTo(y.Len);
@@ -454,15 +438,28 @@ internal sealed unsafe class TokenTable : IDisposable
     /// <summary>Adds every entry of another table.</summary>
     public void MergeFrom(TokenTable other)
     {
-        // straight from the other table's slots: keys come packed (or hashed) with their counts, and the other arena is
-        // read only to insert a key or to compare a long one
-        foreach (ref readonly var o in new ReadOnlySpan<Slot>(other._slots, other._slotCount))
+        // the other table's entries in insertion order (its arena read sequentially too), each home slot here
+        // prefetched a few entries ahead: one cache miss per type, in this table only
+        var es = other.Entries;
+        const int Ahead = 8;
+        Span<ulong> ring = stackalloc ulong[Ahead];
+        for (int i = 0; i < Math.Min(Ahead, es.Length); i++) ring[i] = HashAndPrefetch(other.Key(es[i]));
+        for (int i = 0; i < es.Length; i++)
         {
-            if (o.Entry == 0) continue;
-            ref readonly var e = ref other._entries[o.Entry - 1];
-            ulong h = o.Len <= 16 ? KeyPacking.Mix(o.K0, o.K1, o.Len) : o.K0;
-            Upsert(o.K0, o.K1, h, other.Key(e), o.Count, e.First, e.Id);
+            ulong h = ring[i % Ahead];
+            if (i + Ahead < es.Length) ring[i % Ahead] = HashAndPrefetch(other.Key(es[i + Ahead]));
+            ref readonly var e = ref es[i];
+            var key = other.Key(e);
+            bool isShort = KeyPacking.ShortWords(key, out ulong a, out ulong w);
+            Upsert(isShort ? a : h, w, h, key, e.Count, e.First, e.Id);
         }
+    }
+
+    private ulong HashAndPrefetch(ReadOnlySpan<byte> key)
+    {
+        ulong h = KeyPacking.Hash(key);
+        if (Sse.IsSupported) Sse.Prefetch0(_slots + ((int)h & (_slotCount - 1)));
+        return h;
     }
 
     /// <summary>Forgets everything (after a spill) and returns its memory to the operating system.</summary>

@@ -20,12 +20,20 @@ internal sealed class FlatParquetWriter : IDisposable
     private const int RowsPerPage = 1 << 16;
     private readonly Stream _out;
     private readonly IReadOnlyList<FlatColumn> _columns;
-    private readonly Compressor _zstd = new(1); // level 1: count tables are written once per run and read rarely
     private readonly List<RowGroupMeta> _groups = [];
     private long _pos;
     private long _rows;
-    private byte[] _page = new byte[1 << 16];
-    private byte[] _packed = new byte[1 << 16];
+    private readonly List<PageSlot> _slots = [];
+
+    /// <summary>One page's buffers and compressor: the pages of a row group are encoded and compressed in parallel.</summary>
+    private sealed class PageSlot : IDisposable
+    {
+        public byte[] Page = new byte[1 << 16];
+        public byte[] Packed = new byte[1 << 16];
+        public readonly Compressor Zstd = new(1); // level 1: count tables are written once per run and read rarely
+        public int Len, Compressed;
+        public void Dispose() => Zstd.Dispose();
+    }
 
     private sealed record ChunkMeta(long Offset, long Values, long Uncompressed, long Compressed);
     private sealed record RowGroupMeta(long Rows, List<ChunkMeta> Chunks);
@@ -49,21 +57,41 @@ internal sealed class FlatParquetWriter : IDisposable
     {
         if (data.Count != _columns.Count) throw new ArgumentException("one array per column");
         if (rows == 0) return;
+        // pages are independent: encoded and compressed on all cores, then written in column order (same bytes)
+        int perColumn = (rows + RowsPerPage - 1) / RowsPerPage;
+        int pages = _columns.Count * perColumn;
+        while (_slots.Count < pages) _slots.Add(new PageSlot());
+        void Encode(int j)
+        {
+            var col = _columns[j / perColumn];
+            int start = j % perColumn * RowsPerPage, n = Math.Min(RowsPerPage, rows - start);
+            var slot = _slots[j];
+            var values = data[j / perColumn];
+            slot.Len = col.Type switch
+            {
+                FlatType.String => EncodeStrings(ref slot.Page, (string?[])values, start, n, col.Nullable),
+                FlatType.Int32 => EncodeFixed(ref slot.Page, (int[])values, start, n),
+                _ => EncodeFixed(ref slot.Page, (long[])values, start, n),
+            };
+            Ensure(ref slot.Packed, Compressor.GetCompressBound(slot.Len));
+            slot.Compressed = slot.Zstd.Wrap(slot.Page.AsSpan(0, slot.Len), slot.Packed);
+        }
+        if (pages > 1 && Environment.ProcessorCount > 1)
+        {
+            try { Parallel.For(0, pages, Encode); }
+            catch (AggregateException ae) when (ae.InnerExceptions.Count > 0)
+            {
+                System.Runtime.ExceptionServices.ExceptionDispatchInfo.Capture(ae.InnerExceptions[0]).Throw();
+            }
+        }
+        else for (int j = 0; j < pages; j++) Encode(j);
         var chunks = new List<ChunkMeta>(_columns.Count);
         for (int c = 0; c < _columns.Count; c++)
         {
-            var col = _columns[c];
             long offset = _pos, unc = 0, comp = 0;
-            for (int start = 0; start < rows; start += RowsPerPage)
+            for (int p = 0; p < perColumn; p++)
             {
-                int n = Math.Min(RowsPerPage, rows - start);
-                int len = col.Type switch
-                {
-                    FlatType.String => EncodeStrings((string?[])data[c], start, n, col.Nullable),
-                    FlatType.Int32 => EncodeFixed<int>((int[])data[c], start, n),
-                    _ => EncodeFixed<long>((long[])data[c], start, n),
-                };
-                var (u, z) = WritePage(len, n);
+                var (u, z) = WritePage(_slots[c * perColumn + p], Math.Min(RowsPerPage, rows - p * RowsPerPage));
                 unc += u;
                 comp += z;
             }
@@ -73,21 +101,21 @@ internal sealed class FlatParquetWriter : IDisposable
         _rows += rows;
     }
 
-    private int EncodeFixed<T>(T[] values, int start, int n) where T : unmanaged
+    private static int EncodeFixed<T>(ref byte[] page, T[] values, int start, int n) where T : unmanaged
     {
         var src = System.Runtime.InteropServices.MemoryMarshal.AsBytes(values.AsSpan(start, n));
-        Ensure(ref _page, src.Length);
-        src.CopyTo(_page);
+        Ensure(ref page, src.Length);
+        src.CopyTo(page);
         return src.Length; // PLAIN: little-endian values (this library runs on little-endian machines only)
     }
 
-    private int EncodeStrings(string?[] values, int start, int n, bool nullable)
+    private static int EncodeStrings(ref byte[] page, string?[] values, int start, int n, bool nullable)
     {
         int pos = 0;
         if (nullable)
         {
             // definition levels: 4-byte length, then the RLE/bit-packed hybrid with runs only (bit width 1)
-            Ensure(ref _page, 4 + 6 * n + 16);
+            Ensure(ref page, 4 + 6 * n + 16);
             int lenPos = pos;
             pos += 4;
             int i = 0;
@@ -96,11 +124,11 @@ internal sealed class FlatParquetWriter : IDisposable
                 bool present = values[start + i] is not null;
                 int run = 1;
                 while (i + run < n && (values[start + i + run] is not null) == present) run++;
-                pos = WriteUVarint(_page, pos, (ulong)run << 1);
-                _page[pos++] = present ? (byte)1 : (byte)0;
+                pos = WriteUVarint(page, pos, (ulong)run << 1);
+                page[pos++] = present ? (byte)1 : (byte)0;
                 i += run;
             }
-            BinaryPrimitives.WriteInt32LittleEndian(_page.AsSpan(lenPos), pos - lenPos - 4);
+            BinaryPrimitives.WriteInt32LittleEndian(page.AsSpan(lenPos), pos - lenPos - 4);
         }
         for (int i = 0; i < n; i++)
         {
@@ -111,18 +139,17 @@ internal sealed class FlatParquetWriter : IDisposable
                 continue;
             }
             int max = Encoding.UTF8.GetMaxByteCount(v.Length);
-            Ensure(ref _page, pos + 4 + max);
-            int w = Encoding.UTF8.GetBytes(v, _page.AsSpan(pos + 4));
-            BinaryPrimitives.WriteInt32LittleEndian(_page.AsSpan(pos), w);
+            Ensure(ref page, pos + 4 + max);
+            int w = Encoding.UTF8.GetBytes(v, page.AsSpan(pos + 4));
+            BinaryPrimitives.WriteInt32LittleEndian(page.AsSpan(pos), w);
             pos += 4 + w;
         }
         return pos;
     }
 
-    private (long Uncompressed, long Compressed) WritePage(int len, int values)
+    private (long Uncompressed, long Compressed) WritePage(PageSlot slot, int values)
     {
-        Ensure(ref _packed, Compressor.GetCompressBound(len));
-        int z = _zstd.Wrap(_page.AsSpan(0, len), _packed);
+        int len = slot.Len, z = slot.Compressed;
         var h = new ThriftCompactWriter();
         h.I32(1, 0);            // type: DATA_PAGE
         h.I32(2, len);          // uncompressed_page_size
@@ -136,7 +163,7 @@ internal sealed class FlatParquetWriter : IDisposable
         h.Stop();
         var header = h.ToSpan();
         Write(header);
-        Write(_packed.AsSpan(0, z));
+        Write(slot.Packed.AsSpan(0, z));
         return (header.Length + len, header.Length + z);
     }
 
@@ -249,5 +276,8 @@ internal sealed class FlatParquetWriter : IDisposable
         return pos;
     }
 
-    public void Dispose() => _zstd.Dispose();
+    public void Dispose()
+    {
+        foreach (var slot in _slots) slot.Dispose();
+    }
 }

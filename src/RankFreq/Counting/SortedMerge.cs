@@ -1,0 +1,182 @@
+using System.Buffers.Binary;
+using System.Text;
+
+namespace RankFreq.Counting;
+
+/// <summary>
+/// Ranks several tables of one count in memory without merging them into one hash table: each table's types are
+/// sorted by key on their own (the tables in parallel), the key-ordered streams are merged with equal keys combined,
+/// and the merged stream is put in rank order by a stable counting sort on the count (key order is kept within a
+/// count, which is the tie rule of <see cref="Primitives.RankOrder"/>).
+/// </summary>
+/// <remarks>
+/// Merging the tables by inserting one into another costs a random probe per type and the growth of the receiving
+/// table, on one thread; at millions of types that was the largest serial step of a two-thread count. Here the sorts
+/// run side by side and everything after them reads memory in order. Counts below <see cref="Buckets"/> are placed by
+/// their bucket; the few larger ones are sorted by comparison and go first. The result is the same total order as
+/// ranking the merged table, so the rows are identical.
+/// </remarks>
+internal static class SortedMerge
+{
+    /// <summary>Counts below this are placed by a counting sort; larger ones (at most tokens / this) are compared.</summary>
+    private const int Buckets = 1 << 16;
+
+    /// <summary>One ranked type: its key words, length and where its key bytes are (table, entry).</summary>
+    private readonly record struct Row(ulong A, ulong B, int Len, int Part, int Index);
+
+    /// <summary>Ranks <paramref name="tables"/> (two or more, none empty); frees their slots on the way.</summary>
+    public static (string?[] Tokens, long[] Counts, int[]? Ids) Rank(List<TokenTable> tables, GrowthHistogram growth,
+        bool withIds)
+    {
+        var parts = new TokenTable.SortedTypes[tables.Count];
+        try
+        {
+            Parallel.For(0, tables.Count, i =>
+            {
+                tables[i].FreeSlots(); // probing is over; the slots are most of a table's memory
+                parts[i] = tables[i].Sorted(byCount: false);
+            });
+
+            // pass 1: how many types of each count, and the types of large counts
+            var hist = new long[Buckets];
+            var big = new List<(long Count, long Order)>();
+            long n = 0;
+            Merge(tables, parts, (in Cursor c, long count, long first, int id) =>
+            {
+                if (count < Buckets) hist[count]++;
+                else big.Add((count, n));
+                n++;
+            });
+            // rank order: large counts descending (ties in key order, i.e. stream order), then buckets descending
+            big.Sort((x, y) => x.Count != y.Count ? y.Count.CompareTo(x.Count) : x.Order.CompareTo(y.Order));
+            var bigRank = new Dictionary<long, int>(big.Count);
+            for (int i = 0; i < big.Count; i++) bigRank[big[i].Order] = i;
+            var next = new long[Buckets];
+            long at = big.Count;
+            for (int c = Buckets - 1; c >= 1; c--) { next[c] = at; at += hist[c]; }
+
+            // pass 2: every type to its rank
+            int rows = checked((int)n);
+            var counts = new long[rows];
+            var ids = withIds ? new int[rows] : null;
+            var placed = new Row[rows];
+            long order = 0;
+            Merge(tables, parts, (in Cursor c, long count, long first, int id) =>
+            {
+                long r = count < Buckets ? next[count]++ : bigRank[order];
+                order++;
+                counts[r] = count;
+                if (ids is not null) ids[r] = id;
+                placed[r] = new Row(c.A, c.B, c.Len, c.Part, c.Index);
+                growth.Add(first);
+            });
+            foreach (var p in parts) p.Dispose();
+            parts = [];
+
+            var tokens = new string?[rows];
+            Parallel.For(0, (rows + 8191) / 8192, part =>
+            {
+                Span<byte> buffer = stackalloc byte[16];
+                for (int r = part * 8192, end = Math.Min(rows, r + 8192); r < end; r++)
+                    tokens[r] = Encoding.UTF8.GetString(KeyOf(tables, placed[r], buffer));
+            });
+            return (tokens, counts, ids);
+        }
+        finally
+        {
+            foreach (var p in parts) p?.Dispose();
+        }
+    }
+
+    private static ReadOnlySpan<byte> KeyOf(List<TokenTable> tables, in Row row, Span<byte> buffer)
+    {
+        if (row.Len > 16) return tables[row.Part].Key(tables[row.Part].Entries[row.Index]);
+        BinaryPrimitives.WriteUInt64BigEndian(buffer, row.A);
+        BinaryPrimitives.WriteUInt64BigEndian(buffer[8..], row.B);
+        return buffer[..row.Len];
+    }
+
+    /// <summary>The head of one table's key-ordered stream.</summary>
+    private struct Cursor
+    {
+        public int Part, Pos, Len, Index;
+        public ulong A, B;
+    }
+
+    private delegate void Visit(in Cursor head, long count, long first, int id);
+
+    /// <summary>
+    /// Walks the key-ordered streams of all parts in key order, calling <paramref name="visit"/> once per distinct key
+    /// with the summed count, the earliest first position and the id.
+    /// </summary>
+    private static void Merge(List<TokenTable> tables, TokenTable.SortedTypes[] parts, Visit visit)
+    {
+        int k = parts.Length;
+        var heads = new Cursor[k];
+        int live = 0;
+        for (int p = 0; p < k; p++)
+            if (parts[p].Length > 0) heads[live++] = Load(parts[p], p, 0);
+        Span<bool> same = stackalloc bool[k];
+        while (live > 0)
+        {
+            // the smallest key among the heads and which heads hold it, one comparison per other head (k is the
+            // thread count: a linear scan beats a heap)
+            int m = 0;
+            same[0] = true;
+            for (int i = 1; i < live; i++)
+            {
+                int c = Compare(tables, heads[i], heads[m]);
+                if (c < 0)
+                {
+                    same[..i].Clear();
+                    m = i;
+                }
+                same[i] = c <= 0;
+            }
+            var min = heads[m];
+            long count = 0, first = long.MaxValue;
+            int id = -1;
+            for (int i = 0; i < live; i++)
+            {
+                if (!same[i]) continue;
+                var part = parts[heads[i].Part];
+                int pos = heads[i].Pos;
+                count += part.CountAt(pos);
+                first = Math.Min(first, part.FirstAt(pos));
+                if (id == -1) id = part.IdAt(pos);
+            }
+            visit(min, count, first, id);
+            // advance the heads that held the key, from the last: a finished head's slot takes the last head, which
+            // has been dealt with already
+            for (int i = live - 1; i >= 0; i--)
+            {
+                if (!same[i]) continue;
+                same[i] = false;
+                var part = parts[heads[i].Part];
+                if (heads[i].Pos + 1 < part.Length) heads[i] = Load(part, heads[i].Part, heads[i].Pos + 1);
+                else heads[i] = heads[--live];
+            }
+        }
+    }
+
+    private static Cursor Load(TokenTable.SortedTypes part, int p, int pos) => new()
+    {
+        Part = p,
+        Pos = pos,
+        A = part.AAt(pos),
+        B = part.BAt(pos),
+        Len = part.LenAt(pos),
+        Index = part.IndexAt(pos),
+    };
+
+    /// <summary>Ordinal order of the key bytes: packed big-endian words first, the arena beyond 16 bytes.</summary>
+    private static int Compare(List<TokenTable> tables, in Cursor x, in Cursor y)
+    {
+        if (x.A != y.A) return x.A < y.A ? -1 : 1;
+        if (x.B != y.B) return x.B < y.B ? -1 : 1;
+        if (x.Len <= 16 && y.Len <= 16) return x.Len.CompareTo(y.Len);
+        var tx = tables[x.Part];
+        var ty = tables[y.Part];
+        return tx.Key(tx.Entries[x.Index]).SequenceCompareTo(ty.Key(ty.Entries[y.Index]));
+    }
+}

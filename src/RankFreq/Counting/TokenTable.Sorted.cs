@@ -1,0 +1,115 @@
+using System.Buffers.Binary;
+using RankFreq.Primitives;
+
+namespace RankFreq.Counting;
+
+internal sealed unsafe partial class TokenTable
+{
+    /// <summary>
+    /// Every type of the table in rank order (<paramref name="byCount"/>: count descending, ties by key bytes) or in
+    /// key order (a spill run's order), as sort records in a native block that the caller disposes.
+    /// </summary>
+    /// <remarks>
+    /// The records carry count, first position and the first 16 key bytes, so the sorted types are read in one
+    /// sequential pass: reading them through entry indices instead costs a cache and TLB miss per type in the
+    /// entries and another in the arena, which at millions of types was most of a ranking's time.
+    /// </remarks>
+    public SortedTypes Sorted(bool byCount)
+    {
+        var entries = Entries;
+        int n = entries.Length;
+        var keys = (SortKey*)NativeBlock.Alloc((long)Math.Max(1, n) * sizeof(SortKey));
+        try
+        {
+            for (int i = 0; i < n; i++)
+            {
+                ref readonly var e = ref entries[i];
+                var k = Key(e);
+                KeyPacking.Pack16(k[..Math.Min(16, k.Length)], out ulong a, out ulong b);
+                // little-endian packed words byte-reversed: the first byte becomes the most significant
+                keys[i] = new SortKey(e.Count, BinaryPrimitives.ReverseEndianness(a),
+                    BinaryPrimitives.ReverseEndianness(b), e.First, k.Length, i);
+            }
+            new SortKeyComparer(this, byCount).SortParallel(keys, n);
+            return new SortedTypes(this, keys, n);
+        }
+        catch
+        {
+            NativeBlock.Free(keys, (long)Math.Max(1, n) * sizeof(SortKey));
+            throw;
+        }
+    }
+
+    /// <summary>
+    /// Frees the slots of a table whose counting is over (counts are copied into the entries first): entries and keys
+    /// stay readable; nothing may be added until <see cref="Clear"/>.
+    /// </summary>
+    internal void FreeSlots()
+    {
+        if (_dirty) SyncCounts();
+        NativeBlock.Free(_slots, (long)_slotCount * sizeof(Slot));
+        _slots = null;
+        _slotCount = 0;
+    }
+
+    /// <summary>Whether any key was added with a vocabulary id (otherwise every id is -1).</summary>
+    private bool _hasIds;
+
+    /// <summary>The sorted types of <see cref="Sorted"/>; valid while the table is unchanged.</summary>
+    internal sealed class SortedTypes : IDisposable
+    {
+        private readonly TokenTable _table;
+        private SortKey* _keys;
+
+        internal SortedTypes(TokenTable table, void* keys, int length)
+        {
+            _table = table;
+            _keys = (SortKey*)keys;
+            Length = length;
+        }
+
+        /// <summary>Number of types.</summary>
+        public int Length { get; }
+
+        /// <summary>The count of the type at position <paramref name="i"/>.</summary>
+        public long CountAt(int i) => _keys[i].Count;
+
+        /// <summary>The first position (packed) of the type at position <paramref name="i"/>.</summary>
+        public long FirstAt(int i) => _keys[i].First;
+
+        /// <summary>Key bytes 0–7 of the type at position <paramref name="i"/> as a big-endian word (zero-padded).</summary>
+        public ulong AAt(int i) => _keys[i].A;
+
+        /// <summary>Key bytes 8–15 of the type at position <paramref name="i"/> as a big-endian word (zero-padded).</summary>
+        public ulong BAt(int i) => _keys[i].B;
+
+        /// <summary>The key length in bytes of the type at position <paramref name="i"/>.</summary>
+        public int LenAt(int i) => _keys[i].Len;
+
+        /// <summary>The entry index (insertion order) of the type at position <paramref name="i"/>.</summary>
+        public int IndexAt(int i) => _keys[i].Index;
+
+        /// <summary>The vocabulary id of the type at position <paramref name="i"/>, or -1.</summary>
+        public int IdAt(int i) => _table._hasIds ? _table._entries[_keys[i].Index].Id : -1;
+
+        /// <summary>
+        /// The key bytes of the type at position <paramref name="i"/>: rebuilt in <paramref name="buffer"/> (16 bytes)
+        /// from the sort record for keys of at most 16 bytes, read from the arena beyond.
+        /// </summary>
+        public ReadOnlySpan<byte> KeyAt(int i, Span<byte> buffer)
+        {
+            ref readonly var k = ref _keys[i];
+            if (k.Len > 16) return _table.Key(_table._entries[k.Index]);
+            BinaryPrimitives.WriteUInt64BigEndian(buffer, k.A);
+            BinaryPrimitives.WriteUInt64BigEndian(buffer[8..], k.B);
+            return buffer[..k.Len];
+        }
+
+        /// <summary>Frees the sort records.</summary>
+        public void Dispose()
+        {
+            NativeBlock.Free(_keys, (long)Math.Max(1, Length) * sizeof(SortKey));
+            _keys = null;
+        }
+    }
+}
