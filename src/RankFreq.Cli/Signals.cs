@@ -40,15 +40,15 @@ internal static class Signals
         using var sigTerm = PosixSignalRegistration.Create(PosixSignal.SIGTERM, Handle);
 
         var run = CliApp.RunAsync(args, stdout, stderr, cts.Token);
-        if (await Task.WhenAny(run, signalled.Task) != run)
-        {
-            int signalCode = await signalled.Task;
-            if (await Task.WhenAny(run, Task.Delay(Grace)) != run) Exit(stderr, signalCode);
-            int code = await run;
-            // the verb reports cancellation as 130; SIGTERM has its own code
-            return code == CliApp.Interrupted ? signalCode : code;
-        }
-        return await run;
+        await Task.WhenAny(run, signalled.Task);
+        // the signal is recorded before the work is cancelled, so a run that ended by cancellation always finds it
+        // here, even when WhenAny saw the run's completion first
+        if (!signalled.Task.IsCompleted) return await run;
+        int signalCode = await signalled.Task;
+        if (await Task.WhenAny(run, Task.Delay(Grace)) != run) Exit(stderr, signalCode);
+        int code = await run;
+        // the verb reports cancellation as 130; SIGTERM has its own code
+        return code == CliApp.Interrupted ? signalCode : code;
     }
 
     /// <summary>Ends the process now: removes the temporaries it holds, says so, exits with <paramref name="code"/>.</summary>
