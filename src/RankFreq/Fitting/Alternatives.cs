@@ -211,7 +211,8 @@ public static partial class Alternatives
             return double.IsFinite(ll) ? -ll : 1e300;
         }
         double u0 = -0.5 * Math.Log(mean), v0 = Math.Log(0.5);
-        var nt = Newton2.Minimize((w, v) => WeibullNllSlope(x, m, xmin, w, v), u0 + v0, v0, Math.Log(MinBeta));
+        // its value has no cancelling sums, so it can be followed far down the flat ridge to the β floor (relTol 1e-12)
+        var nt = Newton2.Minimize((w, v) => WeibullNllSlope(x, m, xmin, w, v), u0 + v0, v0, Math.Log(MinBeta), 1e-12);
         var (best, st, msg) = nt is { } r ? ([r.X0 - r.X1, r.X1], FitStatus.Ok, "") : Minimize(Nll, [u0, v0], [1, 0.5]);
         double bl = Math.Exp(best[0]), bb = Math.Exp(best[1]);
         var pars = new Dictionary<string, double> { ["lambda"] = bl, ["beta"] = bb };

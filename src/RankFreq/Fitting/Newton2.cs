@@ -10,7 +10,8 @@ internal readonly record struct Quadratic2(double F, double G0, double G1, doubl
 /// tail's spectrum and a simplex search needed hundreds to thousands of them.
 /// </summary>
 /// <remarks>
-/// Stops when the Newton decrement gᵀH⁻¹g/2 (the predicted gain in the objective) is below 1e-10 + 1e-9·|f|, or when
+/// Stops when the Newton decrement gᵀH⁻¹g/2 (the predicted gain in the objective) is below 1e-10 + r·|f| (r = 1e-9
+/// unless the caller asks for less, as the Weibull fit does on its flat ridge towards β → 0), or when
 /// no step along the modified Newton direction lowers f (then converged if the decrement is below 1e3 times that). For
 /// a log-likelihood summed over 10^4–10^5 cells the rounding of f itself is about 1e-12·|f| and more where the sums
 /// cancel (a lognormal near its power-law limit), so a tighter stop would chase rounding; 1e-9·|f| keeps the maximum
@@ -26,7 +27,7 @@ internal static class Newton2
     /// gradient pushing outwards is held there and the step is a Newton step in x0 alone; trial points are projected
     /// onto x1 ≥ lo1.</remarks>
     public static (double X0, double X1, Quadratic2 At, int Iterations)? Minimize(Func<double, double, Quadratic2> eval, double x0, double x1,
-        double lo1 = double.NegativeInfinity)
+        double lo1 = double.NegativeInfinity, double relTol = 1e-9)
     {
         x1 = Math.Max(x1, lo1);
         var q = eval(x0, x1);
@@ -57,7 +58,7 @@ internal static class Newton2
                 tau = tau == 0 ? 1e-8 * scale : tau * 10;
             }
             if (!(dec > 0)) return dec == 0 && q.G0 == 0 && q.G1 == 0 ? (x0, x1, q, it) : null;
-            double tol = 1e-10 + 1e-9 * Math.Abs(q.F);
+            double tol = 1e-10 + relTol * Math.Abs(q.F);
             if (dec < tol) return (x0, x1, q, it);
             double t = 1;
             Quadratic2 next = default;
