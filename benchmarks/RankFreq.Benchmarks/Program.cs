@@ -12,12 +12,14 @@ using RankFreq.Benchmarks;
 //   ... -- replicate-timing FILE N   CPU time of N bootstrap replicates: drawing vs xmin search
 //   ... -- duckdb-recipe merge|spectrum|spectrum-direct OUT INPUT...   one step of docs/scale-out.md on DuckDB
 //   ... -- search-profile FILE N   the xmin search of N replicates: whole, α fits alone, KS distances alone
+//   ... -- alternatives-profile FILE   CPU time of each alternative family's fit on the KS-chosen tail
 if (args is ["tools", .. var rest]) return BenchmarkTools.Run(rest);
 if (args.Length > 2 && args[0] is "zipf-spectrum" or "flat-spectrum") { ZipfSpectrum.Run(args); return 0; }
 if (args.Length > 1 && args[0] == "xmin-search") { XminSearchTiming.Run(args[1], args.Length > 2 && args[2] == "full"); return 0; }
 if (args.Length > 2 && args[0] == "tail-spectrum") { TailSpectrum.Run(args[1], args[2]); return 0; }
 if (args.Length > 2 && args[0] == "search-profile") { SearchProfile.Run(args[1], int.Parse(args[2])); return 0; }
 if (args.Length > 2 && args[0] == "replicate-timing") { ReplicateTiming.Run(args[1], int.Parse(args[2])); return 0; }
+if (args.Length > 1 && args[0] == "alternatives-profile") { AlternativesProfile.Run(args[1]); return 0; }
 if (args.Length > 0 && args[0] == "duckdb-recipe") return DuckDbRecipe.Run(args[1..]);
 BenchmarkSwitcher.FromAssembly(typeof(Kernels).Assembly).Run(args);
 return 0;

@@ -22,7 +22,7 @@ internal static class ReplicateTiming
                 var t0 = Cpu();
                 var rng = new Xoshiro(1, 1, (ulong)r);
                 buf.Clear();
-                long nTail = Samplers.Binomial(rng, nTypes, pl.NTail / (double)nTypes);
+                long nTail = BinomialSampler.Draw(rng, nTypes, pl.NTail / (double)nTypes);
                 Synthetic.Multinomial(rng, v, m, 0, from, nTypes - nTail, buf);
                 Synthetic.PowerLawTail(rng, pl.Alpha, pl.Xmin, nTail, buf);
                 var t1 = Cpu();

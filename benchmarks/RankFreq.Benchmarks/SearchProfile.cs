@@ -22,7 +22,7 @@ internal static class SearchProfile
         {
             var rng = new Xoshiro(1, 1, (ulong)r);
             var buf = new SpectrumBuffer();
-            long nTail = Samplers.Binomial(rng, nTypes, pl.NTail / (double)nTypes);
+            long nTail = BinomialSampler.Draw(rng, nTypes, pl.NTail / (double)nTypes);
             Synthetic.Multinomial(rng, v, m, 0, from, nTypes - nTail, buf);
             Synthetic.PowerLawTail(rng, pl.Alpha, pl.Xmin, nTail, buf);
             spectra.Add((buf.Values[..buf.Count], buf.Mult[..buf.Count]));

@@ -22,7 +22,7 @@ namespace RankFreq.Fitting;
 /// <see cref="FitStatus.AtBound"/>: the family then tends to a limit (for the lognormal and the Weibull, the power law
 /// itself) and its comparison carries no evidence either way.
 /// </remarks>
-public static class Alternatives
+public static partial class Alternatives
 {
     /// <summary>Names accepted by <c>--alternatives</c> and written in results.</summary>
     public static readonly string[] Names = ["discrete_lognormal", "geometric", "discrete_weibull", "power_law_cutoff"];
@@ -160,8 +160,18 @@ public static class Alternatives
             ll -= n * GaussLog.LogQ((lnX0 - mu) * inv);
             return double.IsFinite(ll) ? -ll : 1e300;
         }
-        var (best, st, msg) = Minimize(Nll, [mu0, Math.Log(s0)], [1, 0.5]);
+        // Newton with analytic derivatives (Alternatives.Newton.cs); the simplex only if that fails
+        var tail = new LognormalTail(x, m, xmin);
+        double k0 = 0.5 / (s0 * s0), kMin = 0.5 / (MaxSigma * MaxSigma);
+        var nt = Newton2.Minimize((e, k) => LognormalNllNatural(tail, e, k), mu0 * 2 * k0, k0, kMin);
+        var (best, st, msg) = nt is { } r
+            ? ([r.X0 / (2 * r.X1), -0.5 * Math.Log(2 * r.X1)], FitStatus.Ok, "")
+            : Minimize(Nll, [mu0, Math.Log(s0)], [1, 0.5]);
         double bm = best[0], bs = Math.Exp(best[1]);
+        if (st == FitStatus.Ok && LognormalCurvatureZ(tail, bs) is var z && z < CurvatureZ)
+            return (new() { ["mu"] = bm, ["sigma"] = bs }, FitStatus.AtBound,
+                $"the lognormal fit lies at its power-law limit (μ = {bm:G4}, σ = {bs:G4}): its curvature 1/(2σ²) is "
+                + $"{z:G2} standard errors from 0, so the data cannot tell it from a power law; no evidence either way");
         if (st == FitStatus.Ok)
         {
             // μ → −∞ with σ → ∞ is the lognormal's power-law limit: over the tail's range of ln x the curvature
@@ -200,7 +210,10 @@ public static class Alternatives
             double ll = LogLik(WeibullLogPmf(lambda, beta, xmin), x, m);
             return double.IsFinite(ll) ? -ll : 1e300;
         }
-        var (best, st, msg) = Minimize(Nll, [-0.5 * Math.Log(mean), Math.Log(0.5)], [1, 0.5]);
+        double u0 = -0.5 * Math.Log(mean), v0 = Math.Log(0.5);
+        // its value has no cancelling sums, so it can be followed far down the flat ridge to the β floor (relTol 1e-12)
+        var nt = Newton2.Minimize((w, v) => WeibullNllSlope(x, m, xmin, w, v), u0 + v0, v0, Math.Log(MinBeta), 1e-12);
+        var (best, st, msg) = nt is { } r ? ([r.X0 - r.X1, r.X1], FitStatus.Ok, "") : Minimize(Nll, [u0, v0], [1, 0.5]);
         double bl = Math.Exp(best[0]), bb = Math.Exp(best[1]);
         var pars = new Dictionary<string, double> { ["lambda"] = bl, ["beta"] = bb };
         if (st == FitStatus.Ok && bb < 1.5 * MinBeta)

@@ -1,6 +1,6 @@
 namespace RankFreq.Fitting;
 
-/// <summary>Exact samplers used by the bootstraps.</summary>
+/// <summary>Exact samplers used by the bootstraps (the binomial of the spectrum samplers is <see cref="BinomialSampler"/>).</summary>
 public static class Samplers
 {
     /// <summary>Gamma(shape, 1) by Marsaglia &amp; Tsang (2000), with the shape &lt; 1 boost.</summary>
@@ -59,6 +59,15 @@ public static class Samplers
     /// </summary>
     public static long PowerLaw(Xoshiro rng, double alpha, long xmin)
     {
+        Span<long> one = stackalloc long[1];
+        PowerLaw(rng, alpha, xmin, one);
+        return one[0];
+    }
+
+    /// <summary>Fills <paramref name="into"/> with independent draws of <see cref="PowerLaw(Xoshiro, double, long)"/>
+    /// (the same numbers as one call per draw; the constants of the hat are computed once).</summary>
+    public static void PowerLaw(Xoshiro rng, double alpha, long xmin, Span<long> into)
+    {
         double om = 1 - alpha; // < 0
         double H(double x) => Math.Exp(om * Math.Log(x)) / om;                 // ∫ x^-α
         double HInv(double u) => Math.Exp(Math.Log(om * u) / om);
@@ -66,14 +75,17 @@ public static class Samplers
         double x0 = xmin;
         double hx0 = H(x0 + 0.5) - h(x0);    // upper end of u for k = xmin (H is negative, increasing to 0)
         double s = x0 + 1 - HInv(H(x0 + 1.5) - h(x0 + 1));
-        while (true)
+        for (int i = 0; i < into.Length; i++)
         {
-            double u = hx0 * rng.NextOpen();   // uniform on (hx0, 0): H(∞) = 0
-            double x = HInv(u);
-            double kd = Math.Floor(x + 0.5);
-            if (kd < x0) kd = x0;
-            if (kd > 4.6e18) kd = 4.6e18;
-            if (kd - x <= s || u >= H(kd + 0.5) - h(kd)) return (long)kd;
+            while (true)
+            {
+                double u = hx0 * rng.NextOpen();   // uniform on (hx0, 0): H(∞) = 0
+                double x = HInv(u);
+                double kd = Math.Floor(x + 0.5);
+                if (kd < x0) kd = x0;
+                if (kd > 4.6e18) kd = 4.6e18;
+                if (kd - x <= s || u >= H(kd + 0.5) - h(kd)) { into[i] = (long)kd; break; }
+            }
         }
     }
 }

@@ -43,7 +43,7 @@ public static class TailFitter
             {
                 var rng = new Xoshiro(options.Seed, GofStream, (ulong)r);
                 buf.Clear();
-                long nTail = options.Xmin > 0 ? pl.NTail : Samplers.Binomial(rng, nTypes, pl.NTail / (double)nTypes);
+                long nTail = options.Xmin > 0 ? pl.NTail : BinomialSampler.Draw(rng, nTypes, pl.NTail / (double)nTypes);
                 if (options.Xmin <= 0) Synthetic.Multinomial(rng, v, m, 0, from, nTypes - nTail, buf);
                 Synthetic.PowerLawTail(rng, pl.Alpha, pl.Xmin, nTail, buf);
                 var s = new TailSearch(buf.Values, buf.Mult, buf.Count);

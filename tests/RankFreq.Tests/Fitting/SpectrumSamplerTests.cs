@@ -1,0 +1,146 @@
+using MathNet.Numerics.Distributions;
+using RankFreq.Counting;
+using RankFreq.Fitting;
+using Xunit;
+
+namespace RankFreq.Tests.Fitting;
+
+/// <summary>
+/// The bootstraps' samplers against exact distributions. Each χ² check is Pearson's goodness-of-fit test (common
+/// practice) with cells pooled to expected counts ≥ 5, its p-value from MathNet.Numerics' χ² distribution; a check fails
+/// below p = 1e-4, so an exact sampler raises a false alarm with probability 1e-4 per check (the draws are seeded, so a
+/// run either always passes or always fails).
+/// </summary>
+public class SpectrumSamplerTests
+{
+    private const double FalseAlarm = 1e-4;
+
+    /// <summary>Pearson's χ² p-value of observed counts against expected ones, cells pooled left to right to ≥ 5.</summary>
+    private static double PearsonP(IReadOnlyList<double> observed, IReadOnlyList<double> expected)
+    {
+        var o = new List<double>();
+        var e = new List<double>();
+        double so = 0, se = 0;
+        for (int i = 0; i < expected.Count; i++)
+        {
+            so += observed[i]; se += expected[i];
+            if (se >= 5) { o.Add(so); e.Add(se); so = 0; se = 0; }
+        }
+        if (se > 0 || so > 0)
+        {
+            if (e.Count == 0) { o.Add(so); e.Add(se); }
+            else { o[^1] += so; e[^1] += se; }
+        }
+        double stat = 0;
+        for (int i = 0; i < e.Count; i++) stat += (o[i] - e[i]) * (o[i] - e[i]) / e[i];
+        return 1 - ChiSquared.CDF(e.Count - 1, stat);
+    }
+
+    [Theory]
+    [InlineData(20L, 0.3)]             // inversion
+    [InlineData(1_000L, 0.3)]          // BTRS
+    [InlineData(50L, 0.93)]            // reflected
+    [InlineData(1_000_000_000L, 2e-8)] // BTRS, mean 20, n huge
+    [InlineData(300_000_000L, 0.4)]    // BTRS, sd ≈ 8,500
+    [InlineData(3_000_000L, 1e-6)]     // inversion, mean 3
+    public void BinomialMatchesExactPmf(long n, double p)
+    {
+        // exact pmf: MathNet.Numerics.Distributions.Binomial (a reference implementation from NuGet)
+        const int draws = 200_000;
+        var rng = new Xoshiro(7, 3, (ulong)n);
+        var counts = new Dictionary<long, double>();
+        for (int i = 0; i < draws; i++)
+        {
+            long k = BinomialSampler.Draw(rng, n, p);
+            Assert.InRange(k, 0, n);
+            counts[k] = counts.GetValueOrDefault(k) + 1;
+        }
+        double mean = n * p, sd = Math.Sqrt(n * p * (1 - p));
+        long lo = Math.Max(0, (long)(mean - 8 * sd - 5)), hi = Math.Min(n, (long)(mean + 8 * sd + 5));
+        var obs = new List<double>();
+        var exp = new List<double>();
+        for (long k = lo; k <= hi; k++)
+        {
+            obs.Add(counts.GetValueOrDefault(k));
+            exp.Add(draws * Math.Exp(Binomial.PMFLn(p, (int)n, (int)k)));
+        }
+        Assert.Equal(draws, obs.Sum()); // nothing drawn beyond 8 sd
+        double pv = PearsonP(obs, exp);
+        Assert.True(pv > FalseAlarm, $"Binomial({n}, {p}): χ² p = {pv:G3}");
+    }
+
+    /// <summary>ζ(α, x) by direct summation to 10^6 plus the Euler–Maclaurin remainder (independent of HurwitzZeta).</summary>
+    private static double ZetaDirect(double alpha, long x)
+    {
+        const long end = 1_000_000;
+        double s = 0;
+        for (long k = end - 1; k >= x; k--) s += Math.Pow(k, -alpha);
+        return s + Math.Pow(end, 1 - alpha) / (alpha - 1) + 0.5 * Math.Pow(end, -alpha) + alpha / 12 * Math.Pow(end, -alpha - 1);
+    }
+
+    [Theory]
+    [InlineData(2.2, 3L, 200_000L)]
+    [InlineData(1.9, 66L, 400_000L)]   // near the 10^9-token spectrum's fit
+    [InlineData(3.5, 1L, 100_000L)]
+    public void PowerLawTailMatchesExactPmf(double alpha, long xmin, long n)
+    {
+        // exact pmf x^−α / ζ(α, xmin) with ζ summed directly; cells x = xmin … xmin + 3,000, then the tail mass beyond
+        for (ulong seed = 1; seed <= 3; seed++)
+        {
+            var buf = new SpectrumBuffer();
+            Synthetic.PowerLawTail(new Xoshiro(seed, 1, 0), alpha, xmin, n, buf);
+            Assert.Equal(n, buf.Mult.Take(buf.Count).Sum());
+            Assert.True(buf.Values[0] >= xmin);
+            long last = xmin + 3000;
+            double z = ZetaDirect(alpha, xmin);
+            var obs = new double[last - xmin + 1];
+            var exp = new double[obs.Length];
+            for (int i = 0; i < buf.Count; i++) obs[Math.Min(buf.Values[i], last) - xmin] += buf.Mult[i];
+            for (long x = xmin; x < last; x++) exp[x - xmin] = n * Math.Pow(x, -alpha) / z;
+            exp[^1] = n * ZetaDirect(alpha, last) / z;
+            double pv = PearsonP(obs, exp);
+            Assert.True(pv > FalseAlarm, $"α = {alpha}, xmin = {xmin}, seed {seed}: χ² p = {pv:G3}");
+        }
+    }
+
+    [Fact]
+    public void MultinomialMatchesItsCellProbabilities()
+    {
+        // one multinomial draw's Pearson statistic is χ² with cells − 1 degrees of freedom (common practice)
+        long[] v = Enumerable.Range(1, 40).Select(i => (long)i * 3).ToArray();
+        long[] m = v.Select(x => 1 + 1_000_000_000L / (x * x)).ToArray();
+        double total = m.Sum();
+        for (ulong seed = 1; seed <= 5; seed++)
+        {
+            var buf = new SpectrumBuffer();
+            const long n = 50_000_000;
+            Synthetic.Multinomial(new Xoshiro(seed, 2, 0), v, m, 0, v.Length, n, buf);
+            var obs = v.Select(x => { int i = Array.IndexOf(buf.Values, x, 0, buf.Count); return i < 0 ? 0.0 : buf.Mult[i]; }).ToArray();
+            Assert.Equal(n, obs.Sum());
+            var exp = m.Select(c => n * c / total).ToArray();
+            double pv = PearsonP(obs, exp);
+            Assert.True(pv > FalseAlarm, $"seed {seed}: χ² p = {pv:G3}");
+        }
+    }
+
+    [Fact]
+    public void GoodnessOfFitPIsRoughlyUniformOnModelData()
+    {
+        // Under the null the semi-parametric bootstrap p (Clauset et al. 2009, §4.1) is close to uniform; with xmin
+        // estimated it leans conservative. 30 data sets of 1,000 draws from (α 2.5, xmin 1) plus 100 replicates each:
+        // a uniform p has mean 0.5 ± 0.053 and about 3 ± 1.6 values below 0.1; the bounds are about 3.5 sd wide.
+        var ps = new List<double>();
+        for (ulong r = 0; r < 30; r++)
+        {
+            var buf = new SpectrumBuffer();
+            Synthetic.PowerLawTail(new Xoshiro(900 + r), 2.5, 1, 1000, buf);
+            var s = new FrequencySpectrum(buf.Values[..buf.Count], buf.Mult[..buf.Count]);
+            var f = TailFitter.Fit(s, new FitOptions(Reps: 100, CiReps: 0, Seed: r, Alternatives: []));
+            Assert.Equal(FitStatus.Ok, f.PowerLaw.Status);
+            ps.Add(f.GofP);
+        }
+        Assert.InRange(ps.Average(), 0.32, 0.72);
+        Assert.True(ps.Count(p => p < 0.1) <= 9, string.Join(", ", ps.Select(p => p.ToString("F2"))));
+        Assert.True(ps.Count(p => p > 0.9) <= 9, string.Join(", ", ps.Select(p => p.ToString("F2"))));
+    }
+}
