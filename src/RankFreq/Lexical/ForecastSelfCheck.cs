@@ -57,11 +57,14 @@ public sealed record ForecastSelfCheck(double Fraction, double SampleTokens, str
         ? $"Self-check not possible: no model fitted a random {Pct(Fraction)} of the sample ({Status})."
         : $"Self-check: fitted to a random {Pct(Fraction)} of this sample ({SampleTokens:N0} tokens), the {Family} model "
             + $"forecast the whole sample's types {Signed(TypesError)} and its hapaxes {Signed(HapaxError)} off "
-            + $"(all models: hapaxes {Signed(HapaxModelsMin / ObservedHapax - 1)} to {Signed(HapaxModelsMax / ObservedHapax - 1)}). "
-            + $"Expect errors of about this size and sign at {(1 / Fraction).ToString("0.#", CultureInfo.InvariantCulture)}× beyond it.";
+            + $"(all models: hapaxes {Signed(HapaxModelsMin / ObservedHapax - 1)} to "
+            + $"{Signed(HapaxModelsMax / ObservedHapax - 1)}). "
+            + $"Expect errors of about this size and sign at {Times(1 / Fraction)} beyond it.";
+
+    private static string Times(double x) => x.ToString("0.#", CultureInfo.InvariantCulture) + "×";
 
     private static string Pct(double x) => (100 * x).ToString("0.#", CultureInfo.InvariantCulture) + "%";
 
-    private static string Signed(double x) => double.IsFinite(x) ? (x >= 0 ? "+" : "−") + (100 * Math.Abs(x)).ToString("0.0", CultureInfo.InvariantCulture) + "%"
-        : "–";
+    private static string Signed(double x) =>
+        double.IsFinite(x) ? (x >= 0 ? "+" : "−") + (100 * Math.Abs(x)).ToString("0.0", CultureInfo.InvariantCulture) + "%" : "–";
 }
