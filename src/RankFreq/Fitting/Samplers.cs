@@ -22,6 +22,8 @@ public static class Samplers
     /// <summary>
     /// Binomial(n, p), exactly: geometric waiting times when n·p is small; otherwise Knuth's order-statistic recursion
     /// (TAOCP vol. 2, §3.4.1): the a-th smallest of n uniforms is Beta(a, n+1−a), which splits the problem in half.
+    /// The library draws with <see cref="BinomialSampler"/>; this one stays as an independent exact sampler that the
+    /// tests and benchmarks use to build their data, so those data do not depend on the sampler under test.
     /// </summary>
     public static long Binomial(Xoshiro rng, long n, double p)
     {

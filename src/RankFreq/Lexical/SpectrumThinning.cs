@@ -15,8 +15,8 @@ namespace RankFreq.Lexical;
 /// Binomial(c, p), so their histogram is Multinomial(m; b₀..b_c) with b_k = C(c, k) p^k (1 − p)^(c−k); it is drawn by
 /// sequential conditional binomials, the k-th with probability b_k / Σ_{j≥k} b_j (suffix sums of the pmf, computed
 /// from log C(c, k) in doubles, so nothing cancels). That costs O(c) per value and is used when m exceeds c and 16;
-/// otherwise each of the m types draws Binomial(c, p) on its own with the exact sampler of
-/// <see cref="Samplers.Binomial"/>. Both paths are exact in distribution; tests check E[kept] = p·c and the kept-count
+/// otherwise each of the m types draws Binomial(c, p) on its own. Both draw with <see cref="BinomialSampler"/>, the
+/// bootstraps' sampler (constant expected time). Both paths are exact in distribution; tests check E[kept] = p·c and the kept-count
 /// histogram against the binomial pmf with a fixed seed.
 /// </remarks>
 public static class SpectrumThinning
@@ -39,7 +39,7 @@ public static class SpectrumThinning
             {
                 for (long t = 0; t < m; t++)
                 {
-                    long k = Samplers.Binomial(rng, c, p);
+                    long k = BinomialSampler.Draw(rng, c, p);
                     if (k > 0) kept[k] = kept.GetValueOrDefault(k) + 1;
                 }
                 continue;
@@ -54,7 +54,7 @@ public static class SpectrumThinning
             long remaining = m;
             for (long k = 0; k <= c && remaining > 0; k++)
             {
-                long x = k == c ? remaining : Samplers.Binomial(rng, remaining, Math.Min(1, pmf[k] / suffix[k]));
+                long x = k == c ? remaining : BinomialSampler.Draw(rng, remaining, Math.Min(1, pmf[k] / suffix[k]));
                 if (k > 0 && x > 0) kept[k] = kept.GetValueOrDefault(k) + x;
                 remaining -= x;
             }
