@@ -1,3 +1,4 @@
+using System.Text;
 using System.Text.Json;
 
 namespace RankFreq.Tokenization;
@@ -39,8 +40,8 @@ internal sealed class TokenizerJsonFile : IDisposable
     public JsonElement Normalizer => Prop(Root, "normalizer");
     /// <summary>The <c>pre_tokenizer</c> node (null kind when absent).</summary>
     public JsonElement PreTokenizer => Prop(Root, "pre_tokenizer");
-    /// <summary>Model vocabulary: token string → id.</summary>
-    public Dictionary<string, int> Vocab { get; } = new(StringComparer.Ordinal);
+    /// <summary>Model vocabulary: token (UTF-8) → id.</summary>
+    public Utf8Vocabulary Vocab { get; private set; } = new();
     /// <summary>BPE merges in rank order, as ids: left, right and the merged token.</summary>
     public List<(int Left, int Right, int Merged)> Merges { get; } = [];
     /// <summary>Whether special added tokens are matched in the text (<c>--specials</c>) rather than counted as text.
@@ -55,7 +56,7 @@ internal sealed class TokenizerJsonFile : IDisposable
     public List<AddedTokenEntry> Added { get; } = [];
 
     /// <summary>One past the largest id of the vocabulary and the added tokens.</summary>
-    public int IdLimit => _idLimit ??= Math.Max(Vocab.Count == 0 ? 0 : Vocab.Values.Max() + 1, Added.Count == 0 ? 0 : Added.Max(a => a.Id) + 1);
+    public int IdLimit => _idLimit ??= Math.Max(Vocab.MaxId() + 1, Added.Count == 0 ? 0 : Added.Max(a => a.Id) + 1);
 
     /// <summary>Reads and checks a tokenizer.json file.</summary>
     public static TokenizerJsonFile Read(string path)
@@ -103,21 +104,23 @@ internal sealed class TokenizerJsonFile : IDisposable
         {
             case "BPE" or "WordPiece" or "WordLevel":
                 if (vocab.ValueKind != JsonValueKind.Object) throw Bad($"the {ModelType} model's \"vocab\" is not an object");
+                Vocab = new Utf8Vocabulary(vocab.GetPropertyCount());
                 foreach (var p in vocab.EnumerateObject())
                 {
                     if (p.Value.ValueKind != JsonValueKind.Number || !p.Value.TryGetInt32(out int id) || id < 0)
                         throw Bad($"vocab entry \"{p.Name}\" has no valid id");
-                    Vocab[p.Name] = id;
+                    Vocab.Set(Utf8Vocabulary.NameBytes(p), id);
                 }
                 break;
             case "Unigram":
                 if (vocab.ValueKind != JsonValueKind.Array) throw Bad("the Unigram model's \"vocab\" is not a list");
+                Vocab = new Utf8Vocabulary(vocab.GetArrayLength());
                 int i = 0;
                 foreach (var e in vocab.EnumerateArray())
                 {
                     if (e.ValueKind != JsonValueKind.Array || e.GetArrayLength() != 2 || e[0].ValueKind != JsonValueKind.String)
                         throw Bad($"Unigram vocab entry {i} is not a [piece, score] pair");
-                    Vocab.TryAdd(e[0].GetString()!, i);
+                    Vocab.TryAdd(Utf8Vocabulary.StringBytes(e[0]), i);
                     i++;
                 }
                 break;
@@ -146,41 +149,39 @@ internal sealed class TokenizerJsonFile : IDisposable
         if (merges.ValueKind is JsonValueKind.Undefined or JsonValueKind.Null) return;
         if (merges.ValueKind != JsonValueKind.Array) throw Bad("the BPE model's \"merges\" is not a list");
         Merges.Capacity = merges.GetArrayLength();
-        string prefix = Prop(Model, "continuing_subword_prefix") is { ValueKind: JsonValueKind.String } cp ? cp.GetString()! : "";
-        var lookup = Vocab.GetAlternateLookup<ReadOnlySpan<char>>();
-        char[] joined = new char[256];
+        byte[] prefix = Encoding.UTF8.GetBytes(
+            Prop(Model, "continuing_subword_prefix") is { ValueKind: JsonValueKind.String } cp ? cp.GetString()! : "");
+        byte[] joined = new byte[256];
         int n = 0;
+        // UTF-8 straight from the document: no string per merge (see Utf8Vocabulary for why this matters)
         foreach (var m in merges.EnumerateArray())
         {
             n++;
-            string s;
-            int split; // a = s[..split], b = s[(split + gap)..]
-            int gap = 1;
+            ReadOnlySpan<byte> a, b;
             if (m.ValueKind == JsonValueKind.String)
             {
-                s = m.GetString()!;
-                split = s.Length > 1 ? s.IndexOf(' ', 1) : -1;
-                if (split < 0 || s.IndexOf(' ', split + 1) >= 0) throw Bad($"merge {n} (\"{s}\") is not two tokens separated by a space");
+                var s = Utf8Vocabulary.StringBytes(m);
+                int split = s.Length > 1 ? s[1..].IndexOf((byte)' ') + 1 : 0;
+                if (split <= 0 || s[(split + 1)..].IndexOf((byte)' ') >= 0)
+                    throw Bad($"merge {n} (\"{m.GetString()}\") is not two tokens separated by a space");
+                a = s[..split];
+                b = s[(split + 1)..];
             }
             else if (m.ValueKind == JsonValueKind.Array && m.GetArrayLength() == 2 &&
                      m[0].ValueKind == JsonValueKind.String && m[1].ValueKind == JsonValueKind.String)
             {
-                string a0 = m[0].GetString()!;
-                s = a0 + m[1].GetString()!;
-                split = a0.Length;
-                gap = 0;
+                a = Utf8Vocabulary.StringBytes(m[0]);
+                b = Utf8Vocabulary.StringBytes(m[1]);
             }
             else throw Bad($"merge {n} is neither \"A B\" nor [\"A\", \"B\"]");
-            var a = s.AsSpan(0, split);
-            var b = s.AsSpan(split + gap);
-            if (!lookup.TryGetValue(a, out int ia)) throw Bad($"merge {n} names \"{a}\", which is not in the vocabulary");
-            if (!lookup.TryGetValue(b, out int ib)) throw Bad($"merge {n} names \"{b}\", which is not in the vocabulary");
-            if (prefix.Length > 0 && b.StartsWith(prefix, StringComparison.Ordinal)) b = b[prefix.Length..];
-            if (joined.Length < a.Length + b.Length) joined = new char[a.Length + b.Length];
+            if (!Vocab.TryGet(a, out int ia)) throw Bad($"merge {n} names \"{Encoding.UTF8.GetString(a)}\", which is not in the vocabulary");
+            if (!Vocab.TryGet(b, out int ib)) throw Bad($"merge {n} names \"{Encoding.UTF8.GetString(b)}\", which is not in the vocabulary");
+            if (prefix.Length > 0 && b.StartsWith(prefix)) b = b[prefix.Length..];
+            if (joined.Length < a.Length + b.Length) joined = new byte[a.Length + b.Length];
             a.CopyTo(joined);
             b.CopyTo(joined.AsSpan(a.Length));
             var ab = joined.AsSpan(0, a.Length + b.Length);
-            if (!lookup.TryGetValue(ab, out int iab)) throw Bad($"merge {n} makes \"{ab}\", which is not in the vocabulary");
+            if (!Vocab.TryGet(ab, out int iab)) throw Bad($"merge {n} makes \"{Encoding.UTF8.GetString(ab)}\", which is not in the vocabulary");
             Merges.Add((ia, ib, iab));
         }
     }

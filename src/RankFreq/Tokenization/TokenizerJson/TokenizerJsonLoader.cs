@@ -124,13 +124,13 @@ public static class TokenizerJsonLoader
             }
         }
         if (f.ModelType == "WordPiece" && !splitsWords) return false;
-        if (f.Vocab.Keys.Any(NewlineLetter) || f.Added.Any(a => f.Matched(a) && NewlineLetter(a.Content))) return false;
+        if (f.Vocab.Any(NewlineLetter) || f.Added.Any(a => f.Matched(a) && NewlineLetter(a.Content))) return false;
         // unknown-token fusing (BPE, Unigram) could join an unknown letter to an unknown newline
         if (f.ModelType is not ("BPE" or "Unigram") || pre.Any(p => TokenizerJsonFile.Str(p, "type") == "ByteLevel")) return true;
         bool lower = TokenizerJsonFile.Steps(f.Normalizer, "normalizers").Any(n =>
             TokenizerJsonFile.Str(n, "type") == "Lowercase" || TokenizerJsonFile.Flag(n, "lowercase"));
         for (char c = 'A'; c <= 'z'; c++)
-            if (char.IsAsciiLetter(c) && !f.Vocab.ContainsKey((lower ? char.ToLowerInvariant(c) : c).ToString())) return false;
+            if (char.IsAsciiLetter(c) && !f.Vocab.TryGet([(byte)(lower ? char.ToLowerInvariant(c) : c)], out _)) return false;
         return true;
     }
 

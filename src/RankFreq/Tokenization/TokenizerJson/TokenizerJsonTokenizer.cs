@@ -20,16 +20,20 @@ public abstract class TokenizerJsonTokenizer : ITokenizer
     private protected const int CutAt = 1 << 20; // characters buffered before a long document is cut (when it may be)
     private readonly string[] _display;
 
-    private readonly string?[] _raw;
+    private readonly Utf8Vocabulary _vocab;
+    private readonly int[] _entry;     // id → vocabulary entry + 1 (0: none); texts are made only for ids shown
+    private readonly string?[] _added; // id → added token's text, which takes precedence
     private readonly bool _byteLevel;
 
     private protected TokenizerJsonTokenizer(string path, string normalization, bool cutSafe, TokenizerJsonFile f, bool byteLevel, string engine)
     {
-        _raw = new string[f.IdLimit];
-        foreach (var (token, id) in f.Vocab) _raw[id] = token;
-        foreach (var a in f.Added) _raw[a.Id] = a.Content;
+        _vocab = f.Vocab;
+        _entry = new int[f.IdLimit];
+        for (int e = 0; e < _vocab.Count; e++) _entry[_vocab.Id(e)] = e + 1; // a repeated id: the later entry, as before
+        _added = new string[_entry.Length];
+        foreach (var a in f.Added) _added[a.Id] = a.Content;
         _byteLevel = byteLevel;
-        _display = new string[_raw.Length];
+        _display = new string[_entry.Length];
         Spec = (f.ParseSpecials ? TokenizerJsonLoader.SpecialsPrefix : "hf:") + path;
         Normalization = normalization;
         CutSafe = cutSafe;
@@ -63,7 +67,10 @@ public abstract class TokenizerJsonTokenizer : ITokenizer
     /// <inheritdoc/>
     public string DisplayToken(int id)
     {
-        if ((uint)id >= (uint)_display.Length || _raw[id] is not { } raw) return $"<id {id}>";
+        if ((uint)id >= (uint)_display.Length) return $"<id {id}>";
+        if (_display[id] is { } shown) return shown;
+        string? raw = _added[id] ?? (_entry[id] > 0 ? _vocab.Text(_entry[id] - 1) : null);
+        if (raw is null) return $"<id {id}>";
         // made on first use: most ids are never shown
         return _display[id] ??= _byteLevel && ByteLevelAlphabet.ToBytes(raw) is { } b ? SubwordTokenizer.Readable(b) : raw;
     }
