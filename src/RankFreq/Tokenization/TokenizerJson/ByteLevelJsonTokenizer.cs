@@ -78,6 +78,21 @@ public sealed class ByteLevelJsonTokenizer : TokenizerJsonTokenizer
             }
             bool astral = text.IndexOfAnyInRange('\uD800', '\uDFFF') >= 0;
             ReadOnlySpan<char> view = astral ? View(text) : text;
+            if (owner._rules.Length == 1 && owner._rules[0].Matcher is { } match)
+            {
+                // one hand-written rule (Llama 3, Qwen): pieces go straight to the cache, as SplitRule.Split cuts them
+                int gap = 0, p = 0;
+                while (p < view.Length)
+                {
+                    int e = match(view, p);
+                    if (e <= p) { p++; continue; }
+                    if (gap < p) Piece(text, astral, gap, p);
+                    Piece(text, astral, p, e);
+                    p = gap = e;
+                }
+                if (gap < view.Length) Piece(text, astral, gap, view.Length);
+                return;
+            }
             _pieces.Clear();
             _pieces.Add((0, view.Length));
             foreach (var rule in owner._rules)
@@ -87,9 +102,11 @@ public sealed class ByteLevelJsonTokenizer : TokenizerJsonTokenizer
                 _pieces.Clear();
                 _pieces.AddRange(_next);
             }
-            foreach (var (a, b) in _pieces)
-                Chunk(astral ? text[_map[a].._map[b]] : text[a..b]);
+            foreach (var (a, b) in _pieces) Piece(text, astral, a, b);
         }
+
+        private void Piece(ReadOnlySpan<char> text, bool astral, int a, int b) =>
+            Chunk(astral ? text[_map[a].._map[b]] : text[a..b]);
 
         private void Chunk(ReadOnlySpan<char> chunk)
         {

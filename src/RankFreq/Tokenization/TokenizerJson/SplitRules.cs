@@ -22,6 +22,10 @@ internal sealed class SplitRule
     /// </summary>
     public bool CutSafe { get; }
 
+    /// <summary>The hand-written splitter (null when .NET's regex engine runs): the end of the match at a position.
+    /// </summary>
+    public ChunkMatcher? Matcher => _matcher;
+
     /// <summary>Which splitter runs (for the tokenizer's description and the tests).</summary>
     public string Describe { get; }
 
