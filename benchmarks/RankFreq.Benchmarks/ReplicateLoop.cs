@@ -19,6 +19,7 @@ internal static class ReplicateLoop
         int from = root.IndexOf(pl.Xmin);
         bool gof = part.StartsWith("gof", StringComparison.Ordinal);
         var buf = new SpectrumBuffer();
+        var plan = new MultinomialPlan(v, m, 0, v.Length);
         void Draw(int r)
         {
             buf.Clear();
@@ -29,7 +30,7 @@ internal static class ReplicateLoop
                 Synthetic.Multinomial(rng, v, m, 0, from, nTypes - nTail, buf);
                 Synthetic.PowerLawTail(rng, pl.Alpha, pl.Xmin, nTail, buf);
             }
-            else Synthetic.Multinomial(new Xoshiro(1, 2, (ulong)r), v, m, 0, v.Length, nTypes, buf);
+            else Synthetic.Multinomial(new Xoshiro(1, 2, (ulong)r), plan, nTypes, buf);
         }
         var spectra = new List<(long[] V, long[] M)>();
         if (part.EndsWith("search", StringComparison.Ordinal))

@@ -43,6 +43,55 @@ internal static class Synthetic
         }
     }
 
+    /// <summary>
+    /// Adds a multinomial draw of <paramref name="n"/> points over the values of <paramref name="plan"/> with
+    /// probabilities ∝ their multiplicities: sequential binomials over the plan's dense head, then the points left for
+    /// the sparse suffix placed one by one on a uniformly drawn type of the suffix.
+    /// </summary>
+    /// <remarks>
+    /// Same law as <see cref="Multinomial(Xoshiro, long[], long[], int, int, long, SpectrumBuffer)"/> (Devroye 1986, §XI.1.4): after the head's conditional binomials, the
+    /// count K left for the suffix cells is their total count, and given K the suffix counts are Multinomial(K, m_j /
+    /// Σ_suffix m): K independent points each falling on cell j with probability m_j / Σ_suffix m — a type of the
+    /// suffix drawn uniformly (exactly: Lemire's bounded integers, <see cref="UniformBelow"/>) and mapped to its cell.
+    /// A suffix point costs one 64-bit draw and two array reads where a cell cost one binomial (~60 ns, most of an
+    /// interval replicate's draw). Other random numbers than that one: bootstrap figures for a given
+    /// seed differ from versions before this one (same law).
+    /// </remarks>
+    public static void Multinomial(Xoshiro rng, MultinomialPlan plan, long n, SpectrumBuffer buf)
+    {
+        long[] v = plan.Values, m = plan.Mult;
+        double mass = plan.Mass;
+        long remaining = n;
+        int j = plan.From;
+        for (; j < plan.Split && remaining > 0; j++)
+        {
+            long k = j == plan.To - 1 ? remaining : BinomialSampler.Draw(rng, remaining, Math.Min(1, m[j] / mass));
+            buf.Add(v[j], k);
+            remaining -= k;
+            mass -= m[j];
+        }
+        if (remaining <= 0 || j == plan.To) return;
+        var counts = buf.Histogram(plan.To - plan.Split);
+        var cellOf = plan.CellOf;
+        ulong types = (ulong)cellOf.Length;
+        for (long p = 0; p < remaining; p++) counts[cellOf[UniformBelow(rng, types)]]++;
+        for (int c = 0; c < counts.Length; c++)
+            if (counts[c] != 0) buf.Add(v[plan.Split + c], counts[c]);
+    }
+
+    /// <summary>Uniform integer in [0, s), exactly: Lemire's multiply-and-reject ("Fast random integer generation in
+    /// an interval", ACM TOMACS 29(1), 2019); a draw is rejected with probability &lt; s / 2^64.</summary>
+    internal static long UniformBelow(Xoshiro rng, ulong s)
+    {
+        ulong hi = Math.BigMul(rng.NextUInt64(), s, out ulong lo);
+        if (lo < s)
+        {
+            ulong t = (0 - s) % s;
+            while (lo < t) hi = Math.BigMul(rng.NextUInt64(), s, out lo);
+        }
+        return (long)hi;
+    }
+
     /// <summary>Adds a multinomial draw of <paramref name="n"/> points over the values <c>v[from..to)</c> with probabilities ∝ m.</summary>
     public static void Multinomial(Xoshiro rng, long[] v, long[] m, int from, int to, long n, SpectrumBuffer buf)
     {
@@ -56,5 +105,45 @@ internal static class Synthetic
             remaining -= k;
             mass -= m[j];
         }
+    }
+}
+
+/// <summary>
+/// A multinomial over the values <c>v[from..to)</c> with probabilities ∝ m, prepared once for many draws
+/// (<see cref="Synthetic.Multinomial(Xoshiro, MultinomialPlan, long, SpectrumBuffer)"/>): the sparse suffix (where a
+/// cell holds few types, so a resample puts few points there) gets a map from type to cell.
+/// </summary>
+internal sealed class MultinomialPlan
+{
+    private const int MaxSparseTypes = 1 << 22; // 16 MiB of map at most
+    private const int TypesPerCell = 4;         // a suffix point costs far less than a binomial, so up to 4 per cell
+
+    public readonly long[] Values, Mult;
+    public readonly int From, To, Split;
+    public readonly double Mass;   // Σ m over [from, to)
+    public readonly int[] CellOf;  // type of the suffix → its cell − Split
+
+    public MultinomialPlan(long[] v, long[] m, int from, int to)
+    {
+        Values = v; Mult = m; From = from; To = to;
+        double mass = 0;
+        for (int j = from; j < to; j++) mass += m[j];
+        Mass = mass;
+        // the lowest split whose suffix holds at most TypesPerCell types per cell (and fits the map)
+        int split = to;
+        long types = 0;
+        for (int j = to - 1; j >= from; j--)
+        {
+            types += m[j];
+            if (types > MaxSparseTypes) break;
+            if (types <= (long)TypesPerCell * (to - j)) split = j;
+        }
+        Split = split;
+        types = 0;
+        for (int j = split; j < to; j++) types += m[j];
+        CellOf = new int[(int)types];
+        int at = 0;
+        for (int j = split; j < to; j++)
+            for (long t = 0; t < m[j]; t++) CellOf[at++] = j - split;
     }
 }

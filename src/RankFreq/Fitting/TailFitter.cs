@@ -66,11 +66,12 @@ public static class TailFitter
             var xmin = new double[options.CiReps];
             var ntail = new double[options.CiReps];
             int done = 0;
+            var plan = new MultinomialPlan(v, m, 0, v.Length);
             Parallel.For(0, options.CiReps, po, () => new SpectrumBuffer(), (r, _, buf) =>
             {
                 var rng = new Xoshiro(options.Seed, CiStream, (ulong)r);
                 buf.Clear();
-                Synthetic.Multinomial(rng, v, m, 0, v.Length, nTypes, buf);
+                Synthetic.Multinomial(rng, plan, nTypes, buf);
                 var f = new TailSearch(buf.Values, buf.Mult, buf.Count).Search(options.MinTail, options.Xmin);
                 bool ok = f.Status == FitStatus.Ok;
                 alpha[r] = ok ? f.Alpha : nan; xmin[r] = ok ? f.Xmin : nan; ntail[r] = ok ? f.NTail : nan;
