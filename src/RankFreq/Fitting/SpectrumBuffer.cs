@@ -6,6 +6,12 @@ internal sealed class SpectrumBuffer
     public long[] Values = new long[1024];
     public long[] Mult = new long[1024];
     public int Count;
+
+    /// <summary>Suffix arrays for the xmin search of the spectrum held (<see cref="TailSearch"/>'s scratch).</summary>
+    public readonly TailSearch.SearchScratch Search = new();
+
+    /// <summary>The xmin search over the spectrum held, on this buffer's scratch arrays.</summary>
+    public TailSearch NewSearch() => new(Values, Mult, Count, Search);
     private long[] _scratch = new long[256];
 
     public void Clear() => Count = 0;

@@ -46,7 +46,7 @@ public static class TailFitter
                 long nTail = options.Xmin > 0 ? pl.NTail : BinomialSampler.Draw(rng, nTypes, pl.NTail / (double)nTypes);
                 if (options.Xmin <= 0) Synthetic.Multinomial(rng, v, m, 0, from, nTypes - nTail, buf);
                 Synthetic.PowerLawTail(rng, pl.Alpha, pl.Xmin, nTail, buf);
-                var s = new TailSearch(buf.Values, buf.Mult, buf.Count);
+                var s = buf.NewSearch();
                 var f = s.Search(options.MinTail, options.Xmin);
                 d[r] = f.Status == FitStatus.Ok ? f.KsDistance : double.NaN;
                 int k = Interlocked.Increment(ref done);
@@ -72,7 +72,7 @@ public static class TailFitter
                 var rng = new Xoshiro(options.Seed, CiStream, (ulong)r);
                 buf.Clear();
                 Synthetic.Multinomial(rng, plan, nTypes, buf);
-                var f = new TailSearch(buf.Values, buf.Mult, buf.Count).Search(options.MinTail, options.Xmin);
+                var f = buf.NewSearch().Search(options.MinTail, options.Xmin);
                 bool ok = f.Status == FitStatus.Ok;
                 alpha[r] = ok ? f.Alpha : nan; xmin[r] = ok ? f.Xmin : nan; ntail[r] = ok ? f.NTail : nan;
                 int k = Interlocked.Increment(ref done);
