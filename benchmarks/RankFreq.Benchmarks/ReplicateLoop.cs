@@ -20,6 +20,7 @@ internal static class ReplicateLoop
         bool gof = part.StartsWith("gof", StringComparison.Ordinal);
         var buf = new SpectrumBuffer();
         var plan = new MultinomialPlan(v, m, 0, v.Length);
+        var cells = new PowerLawCells(pl.Alpha, pl.Xmin, pl.NTail + 10 * (long)Math.Ceiling(Math.Sqrt(pl.NTail)) + 100);
         void Draw(int r)
         {
             buf.Clear();
@@ -28,7 +29,7 @@ internal static class ReplicateLoop
                 var rng = new Xoshiro(1, 1, (ulong)r);
                 long nTail = BinomialSampler.Draw(rng, nTypes, pl.NTail / (double)nTypes);
                 Synthetic.Multinomial(rng, v, m, 0, from, nTypes - nTail, buf);
-                Synthetic.PowerLawTail(rng, pl.Alpha, pl.Xmin, nTail, buf);
+                Synthetic.PowerLawTail(rng, pl.Alpha, pl.Xmin, nTail, buf, cells);
             }
             else Synthetic.Multinomial(new Xoshiro(1, 2, (ulong)r), plan, nTypes, buf);
         }

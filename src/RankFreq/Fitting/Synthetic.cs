@@ -16,12 +16,35 @@ internal static class Synthetic
     /// sequential binomial splitting over small x (the count at x is Binomial(remaining, x^−α/ζ(α, x))), then the few
     /// remaining far-tail points drawn one by one with the exact rejection–inversion sampler conditioned on x ≥ the current value.
     /// </summary>
-    public static void PowerLawTail(Xoshiro rng, double alpha, long xmin, long n, SpectrumBuffer buf)
+    public static void PowerLawTail(Xoshiro rng, double alpha, long xmin, long n, SpectrumBuffer buf) =>
+        PowerLawTail(rng, alpha, xmin, n, buf, null);
+
+    /// <summary><see cref="PowerLawTail(Xoshiro, double, long, long, SpectrumBuffer)"/> with the cell probabilities of
+    /// its first steps read from <paramref name="cells"/> (made for the same α and xmin): the same numbers, computed
+    /// once for all replicates instead of an exponential per cell and replicate.</summary>
+    public static void PowerLawTail(Xoshiro rng, double alpha, long xmin, long n, SpectrumBuffer buf, PowerLawCells? cells)
     {
         long remaining = n;
         long x = xmin;
-        double z = HurwitzZeta.Value(alpha, xmin);
         int steps = 0;
+        double z;
+        if (cells is not null)
+        {
+            if (cells.Alpha != alpha || cells.Xmin != xmin) throw new ArgumentException("cells made for another law", nameof(cells));
+            var pc = cells.P;
+            for (; steps < pc.Length && remaining > 0; steps++, x++)
+            {
+                double p = pc[steps];
+                if (remaining < 32 || remaining * p < 1) break;
+                long k = BinomialSampler.Draw(rng, remaining, p);
+                buf.Add(x, k);
+                remaining -= k;
+            }
+            // past the table (or stopped inside it): the running state of the loop below at this step
+            z = steps < pc.Length ? double.NaN : cells.ZAfter;
+            if (steps < pc.Length) goto Individuals;
+        }
+        else z = HurwitzZeta.Value(alpha, xmin);
         while (remaining > 0)
         {
             double t = Math.Exp(-alpha * Math.Log(x));
@@ -35,6 +58,7 @@ internal static class Synthetic
             // refresh ζ now and then so the running subtraction cannot drift
             if ((++steps & 255) == 0) z = HurwitzZeta.Value(alpha, x);
         }
+    Individuals:
         if (remaining > 0)
         {
             var xs = buf.Scratch((int)remaining);
@@ -145,5 +169,41 @@ internal sealed class MultinomialPlan
         int at = 0;
         for (int j = split; j < to; j++)
             for (long t = 0; t < m[j]; t++) CellOf[at++] = j - split;
+    }
+}
+
+/// <summary>
+/// The first cell probabilities p_s = x^−α / ζ(α, x), x = xmin + s, of <see cref="Synthetic.PowerLawTail(Xoshiro,
+/// double, long, long, SpectrumBuffer, PowerLawCells?)"/>'s splitting, computed by its own recurrence (running ζ less
+/// each term, refreshed every 256 steps), so a draw with the table gives the same numbers as one without.
+/// </summary>
+internal sealed class PowerLawCells
+{
+    public readonly double Alpha;
+    public readonly long Xmin;
+    public readonly double[] P;
+    public readonly double ZAfter; // the running ζ after the last step of the table
+
+    /// <summary>Cells until a draw of at most <paramref name="maxPoints"/> points would stop splitting (p·n &lt; 1),
+    /// at most 2^22.</summary>
+    public PowerLawCells(double alpha, long xmin, long maxPoints)
+    {
+        Alpha = alpha; Xmin = xmin;
+        var p = new List<double>();
+        long x = xmin;
+        double z = HurwitzZeta.Value(alpha, xmin);
+        int steps = 0;
+        while (p.Count < 1 << 22)
+        {
+            double t = Math.Exp(-alpha * Math.Log(x));
+            double q = t / z;
+            if (maxPoints * q < 1) break;
+            p.Add(q);
+            z -= t;
+            x++;
+            if ((++steps & 255) == 0) z = HurwitzZeta.Value(alpha, x);
+        }
+        P = p.ToArray();
+        ZAfter = z;
     }
 }

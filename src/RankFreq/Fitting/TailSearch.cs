@@ -66,12 +66,26 @@ public sealed partial class TailSearch
         }
         _nSuffix[count] = 0;
         _lnSuffix[count] = 0;
+        var lnSmall = LnSmall;
         for (int i = count - 1; i >= 0; i--)
         {
-            _lnV[i] = Math.Log(values[i]);
+            long x = values[i];
+            _lnV[i] = (ulong)x < (ulong)lnSmall.Length ? lnSmall[x] : Math.Log(x);
             _nSuffix[i] = _nSuffix[i + 1] + mult[i];
             _lnSuffix[i] = _lnSuffix[i + 1] + mult[i] * _lnV[i];
         }
+    }
+
+    /// <summary>ln k for k &lt; 2^15, the same values as Math.Log (a replicate's spectrum is mostly such values; one
+    /// table read instead of a logarithm per value and replicate).</summary>
+    private static readonly double[] LnSmall = BuildLnSmall();
+
+    private static double[] BuildLnSmall()
+    {
+        var t = new double[1 << 15];
+        for (int k = 1; k < t.Length; k++) t[k] = Math.Log(k);
+        t[0] = double.NegativeInfinity;
+        return t;
     }
 
     /// <summary>Number of types.</summary>

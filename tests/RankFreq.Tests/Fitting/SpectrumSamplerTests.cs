@@ -103,6 +103,25 @@ public class SpectrumSamplerTests
         }
     }
 
+    [Theory]
+    [InlineData(1.94, 66L, 400_000L, 400_000L)]
+    [InlineData(2.5, 3L, 50_000L, 1_000L)]      // more points than the table was made for: it runs out, then computes
+    [InlineData(1.3, 1L, 2_000_000L, 2_100_000L)] // past 256 steps: the running ζ's refreshes come from the table
+    public void PowerLawTailWithCellTableDrawsTheSameNumbers(double alpha, long xmin, long n, long tableFor)
+    {
+        // the table holds the loop's own probabilities, so a seeded draw must be the same spectrum with or without it
+        var cells = new PowerLawCells(alpha, xmin, tableFor);
+        for (ulong seed = 1; seed <= 3; seed++)
+        {
+            var a = new SpectrumBuffer();
+            var b = new SpectrumBuffer();
+            Synthetic.PowerLawTail(new Xoshiro(seed, 1, 0), alpha, xmin, n, a);
+            Synthetic.PowerLawTail(new Xoshiro(seed, 1, 0), alpha, xmin, n, b, cells);
+            Assert.Equal(a.Values[..a.Count], b.Values[..b.Count]);
+            Assert.Equal(a.Mult[..a.Count], b.Mult[..b.Count]);
+        }
+    }
+
     [Fact]
     public void MultinomialMatchesItsCellProbabilities()
     {
