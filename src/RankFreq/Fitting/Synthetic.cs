@@ -73,13 +73,13 @@ internal static class Synthetic
     /// the sparse suffix placed one by one on a uniformly drawn type of the suffix.
     /// </summary>
     /// <remarks>
-    /// Same law as <see cref="Multinomial(Xoshiro, long[], long[], int, int, long, SpectrumBuffer)"/> (Devroye 1986, §XI.1.4): after the head's conditional binomials, the
-    /// count K left for the suffix cells is their total count, and given K the suffix counts are Multinomial(K, m_j /
-    /// Σ_suffix m): K independent points each falling on cell j with probability m_j / Σ_suffix m — a type of the
-    /// suffix drawn uniformly (exactly: Lemire's bounded integers, <see cref="UniformBelow"/>) and mapped to its cell.
-    /// A suffix point costs one 64-bit draw and two array reads where a cell cost one binomial (~60 ns, most of an
-    /// interval replicate's draw). Other random numbers than that one: bootstrap figures for a given
-    /// seed differ from versions before this one (same law).
+    /// Same law as <see cref="Multinomial(Xoshiro, long[], long[], int, int, long, SpectrumBuffer)"/> (Devroye 1986,
+    /// §XI.1.4): after the head's conditional binomials, the count K left for the suffix cells is their total count,
+    /// and given K the suffix counts are Multinomial(K, m_j / Σ_suffix m): K independent points each falling on cell j
+    /// with probability m_j / Σ_suffix m — a type of the suffix drawn uniformly (exactly: Lemire's bounded integers,
+    /// <see cref="UniformBelow"/>) and mapped to its cell. A suffix point costs one 64-bit draw and two array reads
+    /// where a cell cost one binomial (~60 ns, most of an interval replicate's draw). Other random numbers than that
+    /// one: bootstrap figures for a given seed differ from versions before this one (same law).
     /// </remarks>
     public static void Multinomial(Xoshiro rng, MultinomialPlan plan, long n, SpectrumBuffer buf)
     {
@@ -185,7 +185,7 @@ internal sealed class PowerLawCells
     public readonly double ZAfter; // the running ζ after the last step of the table
 
     /// <summary>Cells until a draw of at most <paramref name="maxPoints"/> points would stop splitting (p·n &lt; 1),
-    /// at most 2^22.</summary>
+    /// at most 2^20 (8 MiB); a draw past them computes its cells as without a table.</summary>
     public PowerLawCells(double alpha, long xmin, long maxPoints)
     {
         Alpha = alpha; Xmin = xmin;
@@ -193,7 +193,7 @@ internal sealed class PowerLawCells
         long x = xmin;
         double z = HurwitzZeta.Value(alpha, xmin);
         int steps = 0;
-        while (p.Count < 1 << 22)
+        while (p.Count < 1 << 20)
         {
             double t = Math.Exp(-alpha * Math.Log(x));
             double q = t / z;
