@@ -216,6 +216,8 @@ public static partial class Alternatives
         // the gradient pushes outwards and fits w alone (a few passes instead of ~30 down the ridge). Kept only when it
         // ends on the floor with the gradient still pushing outwards — the first-order (KKT) condition of a minimum on
         // the bound, which is where the walk from the interior start ends on power-law-like tails; else that walk runs.
+        // Both are local searches: a likelihood with an interior maximum as well as such a floor point would now be
+        // reported at the floor where the walk might have found the interior one (no such tail seen in the tests).
         Func<double, double, Quadratic2> slope = (w, v) => WeibullNllSlope(x, m, xmin, w, v);
         double vMin = Math.Log(MinBeta);
         var nt = double.IsFinite(alpha) && alpha > 1 ? Newton2.Minimize(slope, Math.Log(alpha - 1), vMin, vMin, 1e-12) : null;
