@@ -1,7 +1,8 @@
 using System.Diagnostics;
 using RankFreq.Fitting;
 
-/// <summary>Where a bootstrap replicate's time goes on a spectrum file: drawing the synthetic spectrum vs the xmin search.</summary>
+/// <summary>Where a bootstrap replicate's time goes on a spectrum file: drawing the synthetic spectrum vs the xmin search
+/// (the same samplers, tables and scratch arrays as TailFitter).</summary>
 internal static class ReplicateTiming
 {
     public static void Run(string file, int reps)
@@ -13,6 +14,8 @@ internal static class ReplicateTiming
         var pl = new TailSearch(v, m, v.Length).Search(50);
         int from = new TailSearch(v, m, v.Length).IndexOf(pl.Xmin);
         var buf = new SpectrumBuffer();
+        var plan = new MultinomialPlan(v, m, 0, v.Length);
+        var cells = new PowerLawCells(pl.Alpha, pl.Xmin, pl.NTail + 10 * (long)Math.Ceiling(Math.Sqrt(pl.NTail)) + 100);
         for (int round = 0; round < 2; round++) // the first round warms the JIT up
         {
             TimeSpan gen = default, search = default, cgen = default, csearch = default;
@@ -24,15 +27,15 @@ internal static class ReplicateTiming
                 buf.Clear();
                 long nTail = BinomialSampler.Draw(rng, nTypes, pl.NTail / (double)nTypes);
                 Synthetic.Multinomial(rng, v, m, 0, from, nTypes - nTail, buf);
-                Synthetic.PowerLawTail(rng, pl.Alpha, pl.Xmin, nTail, buf);
+                Synthetic.PowerLawTail(rng, pl.Alpha, pl.Xmin, nTail, buf, cells);
                 var t1 = Cpu();
-                new TailSearch(buf.Values, buf.Mult, buf.Count).Search(50);
+                buf.NewSearch().Search(50);
                 var t2 = Cpu();
                 distinct += buf.Count;
                 buf.Clear();
-                Synthetic.Multinomial(new Xoshiro(1, 2, (ulong)r), v, m, 0, v.Length, nTypes, buf);
+                Synthetic.Multinomial(new Xoshiro(1, 2, (ulong)r), plan, nTypes, buf);
                 var t3 = Cpu();
-                new TailSearch(buf.Values, buf.Mult, buf.Count).Search(50);
+                buf.NewSearch().Search(50);
                 var t4 = Cpu();
                 gen += t1 - t0; search += t2 - t1; cgen += t3 - t2; csearch += t4 - t3;
             }

@@ -115,7 +115,7 @@ public static class GroupComparison
             var rng = Rng(o, g, BootKind, r);
             buf.Clear();
             Synthetic.Multinomial(rng, s.Values, s.Types, 0, s.Values.Length, types, buf);
-            var f = new TailSearch(buf.Values, buf.Mult, buf.Count).Search(o.MinTail);
+            var f = buf.NewSearch().Search(o.MinTail);
             rawA[r] = f.Status == FitStatus.Ok ? f.Alpha : double.NaN;
             matchedA[r] = double.NaN;
             if (p > 0)

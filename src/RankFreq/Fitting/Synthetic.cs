@@ -16,12 +16,35 @@ internal static class Synthetic
     /// sequential binomial splitting over small x (the count at x is Binomial(remaining, x^−α/ζ(α, x))), then the few
     /// remaining far-tail points drawn one by one with the exact rejection–inversion sampler conditioned on x ≥ the current value.
     /// </summary>
-    public static void PowerLawTail(Xoshiro rng, double alpha, long xmin, long n, SpectrumBuffer buf)
+    public static void PowerLawTail(Xoshiro rng, double alpha, long xmin, long n, SpectrumBuffer buf) =>
+        PowerLawTail(rng, alpha, xmin, n, buf, null);
+
+    /// <summary><see cref="PowerLawTail(Xoshiro, double, long, long, SpectrumBuffer)"/> with the cell probabilities of
+    /// its first steps read from <paramref name="cells"/> (made for the same α and xmin): the same numbers, computed
+    /// once for all replicates instead of an exponential per cell and replicate.</summary>
+    public static void PowerLawTail(Xoshiro rng, double alpha, long xmin, long n, SpectrumBuffer buf, PowerLawCells? cells)
     {
         long remaining = n;
         long x = xmin;
-        double z = HurwitzZeta.Value(alpha, xmin);
         int steps = 0;
+        double z;
+        if (cells is not null)
+        {
+            if (cells.Alpha != alpha || cells.Xmin != xmin) throw new ArgumentException("cells made for another law", nameof(cells));
+            var pc = cells.P;
+            for (; steps < pc.Length && remaining > 0; steps++, x++)
+            {
+                double p = pc[steps];
+                if (remaining < 32 || remaining * p < 1) break;
+                long k = BinomialSampler.Draw(rng, remaining, p);
+                buf.Add(x, k);
+                remaining -= k;
+            }
+            // past the table (or stopped inside it): the running state of the loop below at this step
+            z = steps < pc.Length ? double.NaN : cells.ZAfter;
+            if (steps < pc.Length) goto Individuals;
+        }
+        else z = HurwitzZeta.Value(alpha, xmin);
         while (remaining > 0)
         {
             double t = Math.Exp(-alpha * Math.Log(x));
@@ -35,12 +58,62 @@ internal static class Synthetic
             // refresh ζ now and then so the running subtraction cannot drift
             if ((++steps & 255) == 0) z = HurwitzZeta.Value(alpha, x);
         }
+    Individuals:
         if (remaining > 0)
         {
             var xs = buf.Scratch((int)remaining);
             Samplers.PowerLaw(rng, alpha, x, xs);
             buf.AddIndividuals(xs);
         }
+    }
+
+    /// <summary>
+    /// Adds a multinomial draw of <paramref name="n"/> points over the values of <paramref name="plan"/> with
+    /// probabilities ∝ their multiplicities: sequential binomials over the plan's dense head, then the points left for
+    /// the sparse suffix placed one by one on a uniformly drawn type of the suffix.
+    /// </summary>
+    /// <remarks>
+    /// Same law as <see cref="Multinomial(Xoshiro, long[], long[], int, int, long, SpectrumBuffer)"/> (Devroye 1986,
+    /// §XI.1.4): after the head's conditional binomials, the count K left for the suffix cells is their total count,
+    /// and given K the suffix counts are Multinomial(K, m_j / Σ_suffix m): K independent points each falling on cell j
+    /// with probability m_j / Σ_suffix m — a type of the suffix drawn uniformly (exactly: Lemire's bounded integers,
+    /// <see cref="UniformBelow"/>) and mapped to its cell. A suffix point costs one 64-bit draw and two array reads
+    /// where a cell cost one binomial (~60 ns, most of an interval replicate's draw). Other random numbers than that
+    /// one: bootstrap figures for a given seed differ from versions before this one (same law).
+    /// </remarks>
+    public static void Multinomial(Xoshiro rng, MultinomialPlan plan, long n, SpectrumBuffer buf)
+    {
+        long[] v = plan.Values, m = plan.Mult;
+        double mass = plan.Mass;
+        long remaining = n;
+        int j = plan.From;
+        for (; j < plan.Split && remaining > 0; j++)
+        {
+            long k = j == plan.To - 1 ? remaining : BinomialSampler.Draw(rng, remaining, Math.Min(1, m[j] / mass));
+            buf.Add(v[j], k);
+            remaining -= k;
+            mass -= m[j];
+        }
+        if (remaining <= 0 || j == plan.To) return;
+        var counts = buf.Histogram(plan.To - plan.Split);
+        var cellOf = plan.CellOf;
+        ulong types = (ulong)cellOf.Length;
+        for (long p = 0; p < remaining; p++) counts[cellOf[UniformBelow(rng, types)]]++;
+        for (int c = 0; c < counts.Length; c++)
+            if (counts[c] != 0) buf.Add(v[plan.Split + c], counts[c]);
+    }
+
+    /// <summary>Uniform integer in [0, s), exactly: Lemire's multiply-and-reject ("Fast random integer generation in
+    /// an interval", ACM TOMACS 29(1), 2019); a draw is rejected with probability &lt; s / 2^64.</summary>
+    internal static long UniformBelow(Xoshiro rng, ulong s)
+    {
+        ulong hi = Math.BigMul(rng.NextUInt64(), s, out ulong lo);
+        if (lo < s)
+        {
+            ulong t = (0 - s) % s;
+            while (lo < t) hi = Math.BigMul(rng.NextUInt64(), s, out lo);
+        }
+        return (long)hi;
     }
 
     /// <summary>Adds a multinomial draw of <paramref name="n"/> points over the values <c>v[from..to)</c> with probabilities ∝ m.</summary>
@@ -56,5 +129,81 @@ internal static class Synthetic
             remaining -= k;
             mass -= m[j];
         }
+    }
+}
+
+/// <summary>
+/// A multinomial over the values <c>v[from..to)</c> with probabilities ∝ m, prepared once for many draws
+/// (<see cref="Synthetic.Multinomial(Xoshiro, MultinomialPlan, long, SpectrumBuffer)"/>): the sparse suffix (where a
+/// cell holds few types, so a resample puts few points there) gets a map from type to cell.
+/// </summary>
+internal sealed class MultinomialPlan
+{
+    private const int MaxSparseTypes = 1 << 22; // 16 MiB of map at most
+    private const int TypesPerCell = 4;         // a suffix point costs far less than a binomial, so up to 4 per cell
+
+    public readonly long[] Values, Mult;
+    public readonly int From, To, Split;
+    public readonly double Mass;   // Σ m over [from, to)
+    public readonly int[] CellOf;  // type of the suffix → its cell − Split
+
+    public MultinomialPlan(long[] v, long[] m, int from, int to)
+    {
+        Values = v; Mult = m; From = from; To = to;
+        double mass = 0;
+        for (int j = from; j < to; j++) mass += m[j];
+        Mass = mass;
+        // the lowest split whose suffix holds at most TypesPerCell types per cell (and fits the map)
+        int split = to;
+        long types = 0;
+        for (int j = to - 1; j >= from; j--)
+        {
+            types += m[j];
+            if (types > MaxSparseTypes) break;
+            if (types <= (long)TypesPerCell * (to - j)) split = j;
+        }
+        Split = split;
+        types = 0;
+        for (int j = split; j < to; j++) types += m[j];
+        CellOf = new int[(int)types];
+        int at = 0;
+        for (int j = split; j < to; j++)
+            for (long t = 0; t < m[j]; t++) CellOf[at++] = j - split;
+    }
+}
+
+/// <summary>
+/// The first cell probabilities p_s = x^−α / ζ(α, x), x = xmin + s, of <see cref="Synthetic.PowerLawTail(Xoshiro,
+/// double, long, long, SpectrumBuffer, PowerLawCells?)"/>'s splitting, computed by its own recurrence (running ζ less
+/// each term, refreshed every 256 steps), so a draw with the table gives the same numbers as one without.
+/// </summary>
+internal sealed class PowerLawCells
+{
+    public readonly double Alpha;
+    public readonly long Xmin;
+    public readonly double[] P;
+    public readonly double ZAfter; // the running ζ after the last step of the table
+
+    /// <summary>Cells until a draw of at most <paramref name="maxPoints"/> points would stop splitting (p·n &lt; 1),
+    /// at most 2^20 (8 MiB); a draw past them computes its cells as without a table.</summary>
+    public PowerLawCells(double alpha, long xmin, long maxPoints)
+    {
+        Alpha = alpha; Xmin = xmin;
+        var p = new List<double>();
+        long x = xmin;
+        double z = HurwitzZeta.Value(alpha, xmin);
+        int steps = 0;
+        while (p.Count < 1 << 20)
+        {
+            double t = Math.Exp(-alpha * Math.Log(x));
+            double q = t / z;
+            if (maxPoints * q < 1) break;
+            p.Add(q);
+            z -= t;
+            x++;
+            if ((++steps & 255) == 0) z = HurwitzZeta.Value(alpha, x);
+        }
+        P = p.ToArray();
+        ZAfter = z;
     }
 }

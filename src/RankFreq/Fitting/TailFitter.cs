@@ -39,14 +39,17 @@ public static class TailFitter
         {
             var d = new double[options.Reps];
             int done = 0;
+            // enough cells for any tail count a replicate draws in practice (mean + 10 sd + 100); beyond, computed
+            long maxTail = pl.NTail + 10 * (long)Math.Ceiling(Math.Sqrt(pl.NTail)) + 100;
+            var cells = new PowerLawCells(pl.Alpha, pl.Xmin, maxTail);
             Parallel.For(0, options.Reps, po, () => new SpectrumBuffer(), (r, _, buf) =>
             {
                 var rng = new Xoshiro(options.Seed, GofStream, (ulong)r);
                 buf.Clear();
                 long nTail = options.Xmin > 0 ? pl.NTail : BinomialSampler.Draw(rng, nTypes, pl.NTail / (double)nTypes);
                 if (options.Xmin <= 0) Synthetic.Multinomial(rng, v, m, 0, from, nTypes - nTail, buf);
-                Synthetic.PowerLawTail(rng, pl.Alpha, pl.Xmin, nTail, buf);
-                var s = new TailSearch(buf.Values, buf.Mult, buf.Count);
+                Synthetic.PowerLawTail(rng, pl.Alpha, pl.Xmin, nTail, buf, cells);
+                var s = buf.NewSearch();
                 var f = s.Search(options.MinTail, options.Xmin);
                 d[r] = f.Status == FitStatus.Ok ? f.KsDistance : double.NaN;
                 int k = Interlocked.Increment(ref done);
@@ -66,12 +69,13 @@ public static class TailFitter
             var xmin = new double[options.CiReps];
             var ntail = new double[options.CiReps];
             int done = 0;
+            var plan = new MultinomialPlan(v, m, 0, v.Length);
             Parallel.For(0, options.CiReps, po, () => new SpectrumBuffer(), (r, _, buf) =>
             {
                 var rng = new Xoshiro(options.Seed, CiStream, (ulong)r);
                 buf.Clear();
-                Synthetic.Multinomial(rng, v, m, 0, v.Length, nTypes, buf);
-                var f = new TailSearch(buf.Values, buf.Mult, buf.Count).Search(options.MinTail, options.Xmin);
+                Synthetic.Multinomial(rng, plan, nTypes, buf);
+                var f = buf.NewSearch().Search(options.MinTail, options.Xmin);
                 bool ok = f.Status == FitStatus.Ok;
                 alpha[r] = ok ? f.Alpha : nan; xmin[r] = ok ? f.Xmin : nan; ntail[r] = ok ? f.NTail : nan;
                 int k = Interlocked.Increment(ref done);

@@ -14,6 +14,16 @@ public sealed partial class TailSearch
         public ScreenMemo() { Up = -1; Down = -1; Both = -1; }
     }
 
+    /// <summary>ln(v_j / (v_j − ½)) for the last j asked (screening tries the same few points candidate after candidate).</summary>
+    private int _halfJ = -1;
+    private double _halfL;
+
+    private double HalfShift(int j)
+    {
+        if (j != _halfJ) { _halfL = -LogMath.Log1p(-0.5 / _v[j]); _halfJ = j; }
+        return _halfL;
+    }
+
     /// <summary>Outcome of <see cref="Screen"/>: dropped or not, the side of α̂ tested, ln ζ with its ratios at the start.</summary>
     private readonly record struct ScreenResult(bool Pruned, bool Upward, LogZeta? AtStart);
 
@@ -98,7 +108,7 @@ public sealed partial class TailSearch
         /// <summary>α̂ lies above the start: G − F is the side tested.</summary>
         public bool Up => up;
 
-        private readonly double _lnInt = -Math.Log(a0 - 1) - lnZ0; // ln(1/((α₀−1) ζ(α₀, xmin)))
+        private readonly double _invA = 1 / (a0 - 1);
 
         /// <summary>Lower bound on G − F (up) or F − G (down) at x = v_j and, for j &gt; i, at x = v_j − 1.</summary>
         public double Deviation(int j)
@@ -111,8 +121,10 @@ public sealed partial class TailSearch
             if (j == i) { tLo = 1; tHi = 1; }
             else
             {
-                tLo = Math.Exp((1 - a0) * lnY + _lnInt) + 0.5 * pmf;
-                tHi = Math.Exp((1 - a0) * Math.Log(s._v[j] - 0.5) + _lnInt);
+                // y^(1−α)/((α−1)ζ) = p(y)·y/(α−1) and (y−½)^(1−α)/((α−1)ζ) = p(y)·(y−½)/(α−1)·e^(α ln(y/(y−½)))
+                double y = s._v[j];
+                tLo = pmf * (y * _invA + 0.5);
+                tHi = pmf * (y - 0.5) * _invA * Math.Exp(a0 * s.HalfShift(j));
             }
             double down = fAt - (1 - tLo + pmf);             // F − G at v_j, G(v_j) = 1 − T(v_j) + p(v_j)
             if (!up && !both) return down;

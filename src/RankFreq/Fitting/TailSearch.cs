@@ -45,18 +45,47 @@ public sealed partial class TailSearch
     private readonly double[] _lnV;       // ln v_j
 
     /// <summary>Prepares the suffix sums for a spectrum given as parallel arrays (values strictly increasing, first <paramref name="count"/> used).</summary>
-    public TailSearch(long[] values, long[] mult, int count)
+    public TailSearch(long[] values, long[] mult, int count) : this(values, mult, count, null) { }
+
+    /// <summary>As the public constructor, with the suffix arrays (and the KS walk's heap) taken from
+    /// <paramref name="scratch"/>: a bootstrap thread reuses them replicate after replicate instead of allocating three
+    /// large-object-heap arrays each time. The search must be done before the scratch is used again.</summary>
+    internal TailSearch(long[] values, long[] mult, int count, SearchScratch? scratch)
     {
         _v = values; _m = mult; _k = count;
-        _nSuffix = new long[count + 1];
-        _lnSuffix = new double[count + 1];
-        _lnV = new double[count];
+        if (scratch is null)
+        {
+            _nSuffix = new long[count + 1];
+            _lnSuffix = new double[count + 1];
+            _lnV = new double[count];
+        }
+        else
+        {
+            scratch.Ensure(count + 1);
+            (_nSuffix, _lnSuffix, _lnV, _heap) = (scratch.NSuffix, scratch.LnSuffix, scratch.LnV, scratch.Heap);
+        }
+        _nSuffix[count] = 0;
+        _lnSuffix[count] = 0;
+        var lnSmall = LnSmall;
         for (int i = count - 1; i >= 0; i--)
         {
-            _lnV[i] = Math.Log(values[i]);
+            long x = values[i];
+            _lnV[i] = (ulong)x < (ulong)lnSmall.Length ? lnSmall[x] : Math.Log(x);
             _nSuffix[i] = _nSuffix[i + 1] + mult[i];
             _lnSuffix[i] = _lnSuffix[i + 1] + mult[i] * _lnV[i];
         }
+    }
+
+    /// <summary>ln k for k &lt; 2^15, the same values as Math.Log (a replicate's spectrum is mostly such values; one
+    /// table read instead of a logarithm per value and replicate).</summary>
+    private static readonly double[] LnSmall = BuildLnSmall();
+
+    private static double[] BuildLnSmall()
+    {
+        var t = new double[1 << 15];
+        for (int k = 1; k < t.Length; k++) t[k] = Math.Log(k);
+        t[0] = double.NegativeInfinity;
+        return t;
     }
 
     /// <summary>Number of types.</summary>
@@ -305,11 +334,26 @@ public sealed partial class TailSearch
         }
     }
 
+    /// <summary>Arrays a bootstrap thread lends to one <see cref="TailSearch"/> after another.</summary>
+    internal sealed class SearchScratch
+    {
+        public long[] NSuffix = [];
+        public double[] LnSuffix = [], LnV = [];
+        public readonly BlockHeap Heap = new();
+
+        public void Ensure(int n)
+        {
+            if (NSuffix.Length >= n) return;
+            int size = Math.Max(n, NSuffix.Length * 2);
+            NSuffix = new long[size]; LnSuffix = new double[size]; LnV = new double[size];
+        }
+    }
+
     /// <summary>A block of values a..b not yet shown to stay within the distance, with its bound and tail masses.</summary>
-    private readonly record struct OpenBlock(double U, int A, int B, double Ta, double Tb);
+    internal readonly record struct OpenBlock(double U, int A, int B, double Ta, double Tb);
 
     /// <summary>Max-heap of open blocks by bound.</summary>
-    private sealed class BlockHeap
+    internal sealed class BlockHeap
     {
         private OpenBlock[] _a = new OpenBlock[64];
         public int Count;
@@ -401,7 +445,8 @@ public sealed partial class TailSearch
                 if (full) f = FitAt(i, warm);
                 else
                 {
-                    double start = StartAlpha(double.IsNaN(offset) ? warm : Approx(i, _v[i]) + offset, Approx(i, _v[i]));
+                    double approx = Approx(i, _v[i]);
+                    double start = StartAlpha(double.IsNaN(offset) ? warm : approx + offset, approx);
                     LogZeta? first = null;
                     if (double.IsFinite(bestD) && i < _k - 1)
                     {

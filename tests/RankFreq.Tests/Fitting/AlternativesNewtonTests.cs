@@ -136,6 +136,29 @@ public class AlternativesNewtonTests
     }
 
     [Fact]
+    public void WeibullFloorShortcutMatchesTheWalkDownTheRidge()
+    {
+        // power-law data: the Weibull optimum is the β → 0 floor (Alternatives.cs). The fit tries the floor first; its
+        // maximum must equal the one the projected Newton reaches walking down the ridge from the interior start
+        // (β = ½, λ from the mean; the earlier procedure), within the fits' 1e-9 relative tolerance
+        var buf = new SpectrumBuffer();
+        Synthetic.PowerLawTail(new Xoshiro(12), 1.95, 40, 300_000, buf);
+        var (v, m) = (buf.Values[..buf.Count], buf.Mult[..buf.Count]);
+        var pl = new TailSearch(v, m, v.Length).Search(2, 40);
+        var wb = Alternatives.Compare(v, m, 0, v.Length, pl, ["discrete_weibull"]).Single();
+        Assert.Equal(FitStatus.AtBound, wb.Status);
+        double mean = 0;
+        for (int i = 0; i < v.Length; i++) mean += m[i] * (double)v[i];
+        mean /= m.Sum();
+        var walk = Newton2.Minimize((w, b) => Alternatives.WeibullNllSlope(v, m, 40, w, b), -0.5 * Math.Log(mean) + Math.Log(0.5),
+            Math.Log(0.5), Math.Log(1e-4), 1e-12);
+        Assert.NotNull(walk);
+        double walkLl = -walk.Value.At.F;
+        Assert.True(Math.Abs(wb.LogLikelihood - walkLl) <= 1e-9 * Math.Abs(walkLl), $"floor {wb.LogLikelihood:R} vs walk {walkLl:R}");
+        Assert.Equal(1e-4, wb.Parameters["beta"], 1e-12);
+    }
+
+    [Fact]
     public void LognormalAtItsPowerLawLimitIsAtBound()
     {
         // power-law data: the lognormal's best fit runs to the κ = 1/(2σ²) → 0 edge (Alternatives.Newton.cs remarks)

@@ -103,6 +103,25 @@ public class SpectrumSamplerTests
         }
     }
 
+    [Theory]
+    [InlineData(1.94, 66L, 400_000L, 400_000L)]
+    [InlineData(2.5, 3L, 50_000L, 1_000L)]      // more points than the table was made for: it runs out, then computes
+    [InlineData(1.3, 1L, 2_000_000L, 2_100_000L)] // past 256 steps: the running ζ's refreshes come from the table
+    public void PowerLawTailWithCellTableDrawsTheSameNumbers(double alpha, long xmin, long n, long tableFor)
+    {
+        // the table holds the loop's own probabilities, so a seeded draw must be the same spectrum with or without it
+        var cells = new PowerLawCells(alpha, xmin, tableFor);
+        for (ulong seed = 1; seed <= 3; seed++)
+        {
+            var a = new SpectrumBuffer();
+            var b = new SpectrumBuffer();
+            Synthetic.PowerLawTail(new Xoshiro(seed, 1, 0), alpha, xmin, n, a);
+            Synthetic.PowerLawTail(new Xoshiro(seed, 1, 0), alpha, xmin, n, b, cells);
+            Assert.Equal(a.Values[..a.Count], b.Values[..b.Count]);
+            Assert.Equal(a.Mult[..a.Count], b.Mult[..b.Count]);
+        }
+    }
+
     [Fact]
     public void MultinomialMatchesItsCellProbabilities()
     {
@@ -121,6 +140,61 @@ public class SpectrumSamplerTests
             double pv = PearsonP(obs, exp);
             Assert.True(pv > FalseAlarm, $"seed {seed}: χ² p = {pv:G3}");
         }
+    }
+
+    [Fact]
+    public void PlannedMultinomialMatchesItsCellProbabilities()
+    {
+        // The interval bootstrap's resample (sparse suffix placed type by type). 300 draws, each of as many points as
+        // types (as in the bootstrap); the summed Pearson statistics of independent draws are χ² with the summed
+        // degrees of freedom (common practice). The cells are pooled to expectations ≥ 5 as in PearsonP, so pooled
+        // runs of the suffix's one-type cells are checked too.
+        long[] v = Enumerable.Range(1, 3000).Select(i => (long)i).ToArray();
+        long[] m = v.Select(x => 1 + 2_000_000L / (x * x)).ToArray();
+        long n = m.Sum();
+        var plan = new MultinomialPlan(v, m, 0, v.Length);
+        Assert.InRange(plan.Split, 100, 2990); // both parts are exercised
+        var exp = m.Select(c => (double)c).ToArray();
+        double stat = 0;
+        int df = 0;
+        var buf = new SpectrumBuffer();
+        for (ulong seed = 1; seed <= 300; seed++)
+        {
+            buf.Clear();
+            Synthetic.Multinomial(new Xoshiro(seed, 2, 0), plan, n, buf);
+            var obs = new double[v.Length];
+            for (int i = 0; i < buf.Count; i++) obs[buf.Values[i] - 1] += buf.Mult[i];
+            Assert.Equal(n, obs.Sum());
+            var (s, cells) = PearsonStat(obs, exp);
+            stat += s; df += cells - 1;
+        }
+        double pv = 1 - ChiSquared.CDF(df, stat);
+        Assert.True(pv > FalseAlarm && pv < 1 - FalseAlarm, $"χ² = {stat:F1} on {df} df: p = {pv:G3}");
+    }
+
+    [Fact]
+    public void UniformBelowIsUniform()
+    {
+        // Lemire's bounded integers against the uniform law on 7 cells (an s that does not divide 2^64)
+        var rng = new Xoshiro(5);
+        var obs = new double[7];
+        for (int i = 0; i < 70_000; i++) obs[Synthetic.UniformBelow(rng, 7)]++;
+        double pv = PearsonP(obs, Enumerable.Repeat(10_000.0, 7).ToArray());
+        Assert.True(pv > FalseAlarm, $"χ² p = {pv:G3}");
+    }
+
+    /// <summary>Pearson's statistic and the number of cells after pooling as in <see cref="PearsonP"/>.</summary>
+    private static (double Stat, int Cells) PearsonStat(IReadOnlyList<double> observed, IReadOnlyList<double> expected)
+    {
+        double stat = 0, so = 0, se = 0;
+        int cells = 0;
+        for (int i = 0; i < expected.Count; i++)
+        {
+            so += observed[i]; se += expected[i];
+            bool last = i == expected.Count - 1;
+            if (se >= 5 || last) { stat += (so - se) * (so - se) / se; cells++; so = 0; se = 0; }
+        }
+        return (stat, cells);
     }
 
     [Fact]

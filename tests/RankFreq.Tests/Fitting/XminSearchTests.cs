@@ -39,6 +39,38 @@ public class XminSearchTests
         }
     }
 
+    [Fact]
+    public void ReplicateSearchesOnSharedScratchChooseTheFullScansFit()
+    {
+        // the bootstraps' path (TailFitter): replicate spectra drawn as there (goodness of fit: multinomial head plus
+        // power-law tail; interval: the planned multinomial resample), each searched on one buffer's reused scratch
+        // arrays, spectra of changing sizes one after another; each fit must equal the full scan on fresh arrays
+        var gof = new SpectrumBuffer();
+        var ci = new SpectrumBuffer();
+        for (ulong seed = 1; seed <= 40; seed++)
+        {
+            var baseBuf = RandomSpectrum(seed);
+            long[] v = baseBuf.Values[..baseBuf.Count], m = baseBuf.Mult[..baseBuf.Count];
+            var pl = new TailSearch(v, m, v.Length).Search(20);
+            if (pl.Status != FitStatus.Ok) continue;
+            var rng = new Xoshiro(seed, 1, 0);
+            long nTypes = m.Sum();
+            int from = new TailSearch(v, m, v.Length).IndexOf(pl.Xmin);
+            gof.Clear();
+            long nTail = BinomialSampler.Draw(rng, nTypes, pl.NTail / (double)nTypes);
+            Synthetic.Multinomial(rng, v, m, 0, from, nTypes - nTail, gof);
+            Synthetic.PowerLawTail(rng, pl.Alpha, pl.Xmin, nTail, gof);
+            ci.Clear();
+            Synthetic.Multinomial(new Xoshiro(seed, 2, 0), new MultinomialPlan(v, m, 0, v.Length), nTypes, ci);
+            foreach (var buf in new[] { gof, ci })
+            {
+                var fast = buf.NewSearch().Search(20);
+                var full = new TailSearch(buf.Values[..buf.Count], buf.Mult[..buf.Count], buf.Count).SearchFullScan(20);
+                AssertSameFit(full, fast, seed);
+            }
+        }
+    }
+
     /// <summary>The pruned search's fit equals the full scan's: status, xmin, α and KS distance.</summary>
     internal static void AssertSameFit(PowerLawFit full, PowerLawFit fast, ulong seed)
     {
