@@ -24,6 +24,7 @@ public static partial class TempNames
     private static readonly string Host = SafeHost();
     private static readonly ConcurrentDictionary<string, byte> Held = new(StringComparer.Ordinal);
     private static readonly ConcurrentDictionary<string, byte> Swept = new(StringComparer.Ordinal);
+    private static int closing;
 
     /// <summary>A fresh temporary path beside <paramref name="target"/> (a file or a folder), not yet created.</summary>
     public static string Beside(string target)
@@ -52,7 +53,17 @@ public static partial class TempNames
     }
 
     /// <summary>Notes that this process holds <paramref name="path"/>, so an abrupt exit can remove it.</summary>
-    public static void Hold(string path) => Held.TryAdd(path, 0);
+    /// <exception cref="OperationCanceledException">The process is removing its temporaries to exit
+    /// (<see cref="RemoveHeld"/>): nothing new may be made.</exception>
+    public static void Hold(string path)
+    {
+        Held.TryAdd(path, 0); // takes a lock: a full fence before the flag is read
+        if (Volatile.Read(ref closing) != 0)
+        {
+            Held.TryRemove(path, out _);
+            throw new OperationCanceledException("the process is stopping");
+        }
+    }
 
     /// <summary>Notes that <paramref name="path"/> was renamed into place or removed.</summary>
     public static void Release(string path) => Held.TryRemove(path, out _);
@@ -61,11 +72,33 @@ public static partial class TempNames
     /// Removes every temporary this process still holds (files and folders); for an exit that cannot wait for the
     /// work to unwind (a second signal, or work that does not stop in time). Returns how many were removed.
     /// </summary>
+    /// <remarks>
+    /// The work is still running while this runs. Nothing new is held from here on (<see cref="Hold"/> throws); a
+    /// folder is first renamed to a fresh temporary name, so a file the work writes into it after that fails instead
+    /// of keeping the folder from being removed; a second pass takes what a write in flight made meanwhile.
+    /// </remarks>
     public static int RemoveHeld()
     {
+        Interlocked.Exchange(ref closing, 1);
         int n = 0;
-        foreach (var p in Held.Keys)
-            if (TryRemove(p)) { n++; Held.TryRemove(p, out _); }
+        for (int pass = 0; pass < 2; pass++)
+        {
+            if (pass > 0) Thread.Sleep(20);
+            foreach (var p in Held.Keys)
+            {
+                string gone = p;
+                if (Directory.Exists(p))
+                {
+                    string moved = Beside(p);
+                    Held.TryAdd(moved, 0);
+                    try { Directory.Move(p, moved); gone = moved; }
+                    catch (Exception e) when (e is IOException or UnauthorizedAccessException) { Held.TryRemove(moved, out _); }
+                    if (gone == moved) Held.TryRemove(p, out _);
+                }
+                // an entry not made yet stays held: the second pass removes it if a write in flight makes it
+                if (TryRemove(gone)) { n++; Held.TryRemove(gone, out _); }
+            }
+        }
         return n;
     }
 
