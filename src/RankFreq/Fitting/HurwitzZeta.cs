@@ -48,12 +48,15 @@ public static class HurwitzZeta
 
     /// <summary><see cref="Log(double, double, bool)"/> given ln q (= Math.Log(q), so the result is the same to the
     /// bit); where q ≥ 12 the scaled leading power is exactly 1 and is not recomputed.</summary>
-    internal static LogZeta LogAt(double s, double q, double lnQ, bool derivatives)
-    {
-        double shift = s * lnQ;
-        var z = Core(s, q, derivatives, shift, lnQ);
-        return new LogZeta(Math.Log(z.Value) - shift, z.D1 / z.Value, z.D2 / z.Value);
-    }
+    internal static LogZeta LogAt(double s, double q, double lnQ, bool derivatives) =>
+        FromScaled(ScaledAt(s, q, lnQ, derivatives), s * lnQ);
+
+    /// <summary>The sums of <see cref="LogAt"/> before their logarithm: ζ·q^s and its derivatives scaled alike (a
+    /// caller that may not need ln ζ skips the logarithm; <see cref="FromScaled"/> then gives LogAt's values to the bit).</summary>
+    internal static ZetaValue ScaledAt(double s, double q, double lnQ, bool derivatives) => Core(s, q, derivatives, s * lnQ, lnQ);
+
+    /// <summary>ln ζ and the ratios from <see cref="ScaledAt"/>'s sums, shift = s·ln q.</summary>
+    internal static LogZeta FromScaled(ZetaValue z, double shift) => new(Math.Log(z.Value) - shift, z.D1 / z.Value, z.D2 / z.Value);
 
     // Sums scaled by e^shift (every power a^−s taken as e^(shift − s ln a)); shift = 0 gives ζ itself.
     private static ZetaValue Core(double s, double q, bool derivatives, double shift, double lnQ = double.NaN)

@@ -54,19 +54,20 @@ public sealed partial class TailSearch
     private ScreenResult Screen(int i, double a0, double giveUp, ref ScreenMemo memo)
     {
         var (z0, pt, slack) = ScreenAt(i, a0);
-        if (pt is not { } p) return new ScreenResult(false, false, z0);
+        // ln ζ only for a candidate that goes on to be fitted (the same values the fit's first iteration computes)
+        if (pt is not { } p) return new ScreenResult(false, false, HurwitzZeta.FromScaled(z0, a0 * _lnV[i]));
         double limit = giveUp + ScreenMargin + slack;
         ref int remembered = ref p.Both ? ref memo.Both : ref p.Up ? ref memo.Up : ref memo.Down;
-        if (remembered > i && remembered < _k && p.Deviation(remembered) >= limit) return new ScreenResult(true, p.Up, z0);
+        if (remembered > i && remembered < _k && p.Deviation(remembered) >= limit) return new ScreenResult(true, p.Up, null);
         int tried = 0;
         for (long off = 0; i + off < _k && tried < ScreenPoints; off = 2 * off + 1, tried++)
         {
             int j = (int)(i + off);
             if (j == remembered || p.Deviation(j) < limit) continue;
             remembered = j;
-            return new ScreenResult(true, p.Up, z0);
+            return new ScreenResult(true, p.Up, null);
         }
-        return new ScreenResult(false, p.Up, z0);
+        return new ScreenResult(false, p.Up, HurwitzZeta.FromScaled(z0, a0 * _lnV[i]));
     }
 
     /// <summary>
@@ -75,18 +76,26 @@ public sealed partial class TailSearch
     /// over |α̂ − α₀| ≤ 2δ + 1e-10·α₀ (|∂G(x)/∂α| = |Cov(1{X ≤ x}, ln X)| ≤ ½ sd ln X; taken as sd ln X for the change
     /// of the variance along the step).
     /// </summary>
-    private (LogZeta Z0, ScreenPoint? Points, double Slack) ScreenAt(int i, double a0)
+    private (ZetaValue Z0, ScreenPoint? Points, double Slack) ScreenAt(int i, double a0)
     {
-        var z0 = HurwitzZeta.LogAt(a0, _v[i], _lnV[i], true);
-        double score = -_lnSuffix[i] / _nSuffix[i] - z0.R1;
-        double info = z0.R2 - z0.R1 * z0.R1;
+        // ζ·v_i^α₀ and its derivatives (no logarithm: the bound points need 1/ζ·v_i^α₀ only)
+        var z0 = HurwitzZeta.ScaledAt(a0, _v[i], _lnV[i], true);
+        double r1 = z0.D1 / z0.Value, r2 = z0.D2 / z0.Value;   // ζ'/ζ and ζ''/ζ, as LogAt gives them
+        double score = -_lnSuffix[i] / _nSuffix[i] - r1;
+        double info = r2 - r1 * r1;
         double step = score / info;
         if (!double.IsFinite(step) || !(info > 0)) return (z0, null, 0);
         double slack = Math.Sqrt(info) * (2 * Math.Abs(step) + 1e-10 * a0);
         bool both = slack <= 1e-6;
         if (!both && !(Math.Abs(step) > 1e-9 * a0)) return (z0, null, 0);
-        return (z0, new ScreenPoint(this, i, a0, z0.Ln, both, score > 0), both ? slack : 0);
+        return (z0, new ScreenPoint(this, i, a0, 1 / z0.Value, both, score > 0), both ? slack : 0);
     }
+
+    /// <summary>e^x for x ≥ 0: its Taylor series through x^7/7! below 0.02 (truncation &lt; 1e-18 relative; the usual
+    /// case, x ≈ α/2y far from the head), else Math.Exp.</summary>
+    private static double ExpSmall(double x) =>
+        x < 0.02 ? 1 + x * (1 + x * (0.5 + x * (1.0 / 6 + x * (1.0 / 24 + x * (1.0 / 120 + x * (1.0 / 720 + x * (1.0 / 5040)))))))
+            : Math.Exp(x);
 
     /// <summary>Test hook: the largest screening bound over every point of the tail at start α₀, margins taken off
     /// (NaN when the screen would not be applied); it must never exceed the KS distance at the fitted α.</summary>
@@ -100,7 +109,7 @@ public sealed partial class TailSearch
     }
 
     /// <summary>One-sided deviations of the tail at index i from the law at α₀, as lower bounds (see <see cref="Screen"/>).</summary>
-    private readonly struct ScreenPoint(TailSearch s, int i, double a0, double lnZ0, bool both, bool up)
+    private readonly struct ScreenPoint(TailSearch s, int i, double a0, double invScaledZ, bool both, bool up)
     {
         /// <summary>Both sides count (the start is within a tiny step of α̂).</summary>
         public bool Both => both;
@@ -115,8 +124,8 @@ public sealed partial class TailSearch
         {
             double n = s._nSuffix[i];
             double fAt = (n - s._nSuffix[j + 1]) / n;      // empirical CDF at v_j
-            double lnY = s._lnV[j];
-            double pmf = Math.Exp(-a0 * lnY - lnZ0);
+            // p(v_j) = v_j^−α₀/ζ = (v_j/v_i)^−α₀ / (ζ·v_i^α₀)
+            double pmf = Math.Exp(-a0 * (s._lnV[j] - s._lnV[i])) * invScaledZ;
             double tLo, tHi;                                // bounds on T(v_j) = P(X ≥ v_j)
             if (j == i) { tLo = 1; tHi = 1; }
             else
@@ -124,7 +133,7 @@ public sealed partial class TailSearch
                 // y^(1−α)/((α−1)ζ) = p(y)·y/(α−1) and (y−½)^(1−α)/((α−1)ζ) = p(y)·(y−½)/(α−1)·e^(α ln(y/(y−½)))
                 double y = s._v[j];
                 tLo = pmf * (y * _invA + 0.5);
-                tHi = pmf * (y - 0.5) * _invA * Math.Exp(a0 * s.HalfShift(j));
+                tHi = pmf * (y - 0.5) * _invA * ExpSmall(a0 * s.HalfShift(j));
             }
             double down = fAt - (1 - tLo + pmf);             // F − G at v_j, G(v_j) = 1 − T(v_j) + p(v_j)
             if (!up && !both) return down;

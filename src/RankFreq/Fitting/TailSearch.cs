@@ -111,7 +111,19 @@ public sealed partial class TailSearch
         double.IsFinite(warmAlpha) && warmAlpha > MinAlpha && warmAlpha < MaxAlpha ? warmAlpha : Math.Clamp(approx, 1.05, MaxAlpha - 1);
 
     /// <summary>Closed-form approximation of α for the tail at index i with cut-off xmin (Clauset et al. 2009, eq. 3.7).</summary>
-    private double Approx(int i, long xmin) => 1 + _nSuffix[i] / (_lnSuffix[i] - _nSuffix[i] * Math.Log(xmin - 0.5));
+    private double Approx(int i, long xmin) =>
+        1 + _nSuffix[i] / (_lnSuffix[i] - _nSuffix[i] * ((ulong)xmin < (ulong)LnHalf.Length ? LnHalf[xmin] : Math.Log(xmin - 0.5)));
+
+    /// <summary>ln(k − ½) for 1 ≤ k &lt; 2^15, the same values as Math.Log (one table read per candidate's closed form).</summary>
+    private static readonly double[] LnHalf = BuildLnHalf();
+
+    private static double[] BuildLnHalf()
+    {
+        var t = new double[1 << 15];
+        for (int k = 1; k < t.Length; k++) t[k] = Math.Log(k - 0.5);
+        t[0] = double.NaN;
+        return t;
+    }
 
     /// <summary><see cref="FitAt"/>, optionally given ln ζ with its ratios already evaluated at the start (the same values
     /// the first iteration would compute); returns ln ζ(α, xmin) at the α returned (NaN when no α is).</summary>
@@ -193,16 +205,22 @@ public sealed partial class TailSearch
     private double KsGiven(int i, double alpha, double giveUpAbove, long xmin, double lnZeta)
     {
         var w = new KsWalk(this, i, alpha, xmin, giveUpAbove, lnZeta);
+        // where the last walk's distance was reached: neighbouring tails tend to peak at the same value, and a candidate
+        // that cannot beat the best then stops after one ζ evaluation (any tail point gives a lower bound)
+        int h = _ksHint;
+        if (h > i && h < _k && double.IsFinite(giveUpAbove) && w.Probe(h)) return w.D;
         // the first values one by one (cheap steps; most poor candidates fail here), then the blocks, largest bound first
         int j = i;
         int end = Math.Min(_k, i + Prefix);
         for (; j < end; j++)
-            if (w.Leaf(j) || w.Done) return w.D;
+            if (w.Leaf(j) || w.Done) { _ksHint = w.Arg; return w.D; }
         if (j < _k) w.Blocks(j, _k - 1, w.T, _heap ??= new BlockHeap());
+        _ksHint = w.Arg;
         return w.D;
     }
 
     private BlockHeap? _heap; // scratch of Ks: an instance is used by one thread at a time
+    private int _ksHint = -1; // value index w whose points v_w − 1, v_w gave the last walk's distance
 
     /// <summary>Reference: the same distance by visiting every value (with the early stops of the old scan).</summary>
     internal double KsFullScan(int i, double alpha, double giveUpAbove = double.PositiveInfinity, long xmin = 0)
@@ -225,6 +243,7 @@ public sealed partial class TailSearch
         public readonly double N;
         public double D, C, T;   // distance so far; empirical count through the last leaf; model mass at its next value
         public bool Done;        // reached giveUp
+        public int Arg;          // value index w such that D was reached at v_w − 1 or v_w (−1: not at such a point)
         private long _x;         // T = P(X ≥ _x)
 
         public KsWalk(TailSearch s, int i, double alpha, long xmin, double giveUp, double lnZeta)
@@ -233,7 +252,7 @@ public sealed partial class TailSearch
             if (xmin <= 0) xmin = s._v[i];
             _lnZ0 = double.IsNaN(lnZeta) ? HurwitzZeta.LogValue(alpha, xmin) : lnZeta;
             N = s._nSuffix[i];
-            D = 0; C = 0; T = 1; _x = xmin; Done = false;
+            D = 0; C = 0; T = 1; _x = xmin; Done = false; Arg = -1;
             if (s._v[i] > xmin)
             {
                 // the empirical CDF is 0 on [xmin, v_i): the largest gap is at v_i − 1
@@ -250,6 +269,27 @@ public sealed partial class TailSearch
         {
             if (diff > D) D = diff;
             if (D >= _giveUp) Done = true;
+        }
+
+        /// <summary><see cref="Raise(double)"/> at v_w − 1 or v_w, remembering w when the distance grows.</summary>
+        private void Raise(double diff, int w)
+        {
+            if (diff > D) { D = diff; Arg = w; }
+            if (D >= _giveUp) Done = true;
+        }
+
+        /// <summary>Evaluates the points v_w − 1 and v_w (w beyond the first value of the tail) before the walk; true
+        /// (and D set) when the distance there reaches the give-up level by more than <see cref="ScreenMargin"/>. Else
+        /// nothing is kept, so a walk that goes on computes every point as before (the same distance to the bit).</summary>
+        public bool Probe(int w)
+        {
+            double tw = Tail(_s._v[w]);                                   // P(X ≥ v_w)
+            double below = (N - _s._nSuffix[w]) / N;                      // F at v_w − 1 (≥ v_i)
+            double at = (N - _s._nSuffix[w + 1]) / N;                     // F at v_w
+            double d = Math.Max(Math.Abs(below - (1 - tw)), Math.Abs(at - (1 - tw + Pmf(_s._lnV[w]))));
+            if (!(d >= _giveUp + ScreenMargin)) return false;
+            D = d; Arg = w; Done = true;
+            return true;
         }
 
         /// <summary>Model mass P(X ≥ v) from P(X ≥ x) = tx, stepping when the gap is short.</summary>
@@ -270,14 +310,14 @@ public sealed partial class TailSearch
             C += _s._m[j];
             double f = C / N;
             double next = T - Pmf(_s._lnV[j]);    // P(X ≥ v + 1)
-            Raise(Math.Abs(f - (1 - next)));
+            Raise(Math.Abs(f - (1 - next)), j);
             if (Done) return true;
             if (j + 1 < _s._k && _s._v[j + 1] > v + 1)
             {
                 // model CDF at v_{j+1} − 1 while the empirical CDF stays at f
                 T = TailAt(_s._v[j + 1], next, v + 1);
                 _x = _s._v[j + 1];
-                Raise(Math.Abs(f - (1 - T)));
+                Raise(Math.Abs(f - (1 - T)), j + 1);
             }
             else { T = next; _x = v + 1; }
             return Done || j + 1 == _s._k;
@@ -312,12 +352,12 @@ public sealed partial class TailSearch
                     {
                         double f = F(j);
                         t -= Pmf(_s._lnV[j]);
-                        Raise(Math.Abs(f - (1 - t)));                                     // the point v_j
+                        Raise(Math.Abs(f - (1 - t)), j);                                  // the point v_j
                         long next = j + 1 < _s._k ? _s._v[j + 1] : _s._v[j] + 1;
                         if (next > _s._v[j] + 1)
                         {
                             t = j == blk.B ? blk.Tb : TailAt(next, t, _s._v[j] + 1);
-                            Raise(Math.Abs(f - (1 - t)));                                 // v_{j+1} − 1
+                            Raise(Math.Abs(f - (1 - t)), j + 1);                          // v_{j+1} − 1
                         }
                     }
                     continue;
@@ -326,7 +366,7 @@ public sealed partial class TailSearch
                 long vm = _s._v[mid + 1];
                 double tm = vm - _s._v[blk.A] <= DenseSpan ? TailAt(vm, blk.Ta, _s._v[blk.A]) : Tail(vm);
                 // x = v_{mid+1} − 1 is a point of the tail (v_mid itself when there is no gap): F = F(v_mid), G = 1 − tm
-                Raise(Math.Abs(F(mid) - (1 - tm)));
+                Raise(Math.Abs(F(mid) - (1 - tm)), mid + 1);
                 double ul = Bound(blk.A, mid, blk.Ta, tm), ur = Bound(mid + 1, blk.B, tm, blk.Tb);
                 if (ul > D) heap.Push(new OpenBlock(ul, blk.A, mid, blk.Ta, tm));
                 if (ur > D) heap.Push(new OpenBlock(ur, mid + 1, blk.B, tm, blk.Tb));

@@ -100,6 +100,38 @@ public class XminSearchTests
     }
 
     [Fact]
+    public void KsWithAGiveUpLevelDecidesAsTheFullScanAfterEarlierWalks()
+    {
+        // the walk first probes the value where the previous walk on the same search peaked (TailSearch.KsGiven): any
+        // tail point is a lower bound, so with a give-up level the verdict (reaches it or not) must be the full scan's,
+        // and a distance below the level must be the supremum itself, bit for bit; candidates walked in order as the
+        // search does, levels around each distance, so the probe both stops walks and lets them run
+        int probedStops = 0;
+        for (ulong seed = 1; seed <= 40; seed++)
+        {
+            var buf = RandomSpectrum(seed);
+            var s = new TailSearch(buf.Values, buf.Mult, buf.Count);
+            var reference = new TailSearch(buf.Values, buf.Mult, buf.Count);
+            for (int i = 0; i < buf.Count - 2; i++)
+            {
+                var f = reference.FitAt(i);
+                if (f.Status != FitStatus.Ok) continue;
+                double sup = reference.Ks(i, f.Alpha);
+                double level = sup * (i % 3 == 0 ? 1.5 : i % 3 == 1 ? 0.5 : 0.9);
+                double a = s.Ks(i, f.Alpha, level);
+                if (sup < level) Assert.Equal(sup, a);
+                else
+                {
+                    Assert.True(a >= level, $"seed {seed}, candidate {i}: {a:R} below the level {level:R} (sup {sup:R})");
+                    Assert.True(a <= sup + 1e-12, $"seed {seed}, candidate {i}: {a:R} above the supremum {sup:R}");
+                    probedStops++;
+                }
+            }
+        }
+        Assert.True(probedStops > 100, $"only {probedStops} walks reached their level");
+    }
+
+    [Fact]
     public void KsMatchesADirectSumOverEveryInteger()
     {
         // independent check of the walk: the model CDF summed term by term from x^−α/ζ(α, xmin), empirical CDF counted
