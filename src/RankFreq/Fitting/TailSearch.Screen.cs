@@ -6,6 +6,7 @@ public sealed partial class TailSearch
     /// the tail masses and of ζ (~1e-12) and the Newton tolerance of the fitted α (1e-11 relative).</summary>
     private const double ScreenMargin = 1e-9;
     private const int ScreenPoints = 20; // points tried per candidate before it is fitted after all
+    private const long QuickFrom = 12;   // values from which the screen takes HurwitzZeta.ScaledQuick
 
     /// <summary>Where the last screening bounds were reached, per side: the next candidate tries these values first.</summary>
     private struct ScreenMemo
@@ -54,8 +55,10 @@ public sealed partial class TailSearch
     private ScreenResult Screen(int i, double a0, double giveUp, ref ScreenMemo memo)
     {
         var (z0, pt, slack) = ScreenAt(i, a0);
-        // ln ζ only for a candidate that goes on to be fitted (the same values the fit's first iteration computes)
-        if (pt is not { } p) return new ScreenResult(false, false, HurwitzZeta.FromScaled(z0, a0 * _lnV[i]));
+        // ln ζ only for a candidate that goes on to be fitted (the values the fit's first iteration computes: from
+        // the quick sums of large values the fit evaluates its own, so fitted α are the same to the bit)
+        LogZeta? First() => _v[i] >= QuickFrom ? null : HurwitzZeta.FromScaled(z0, a0 * _lnV[i]);
+        if (pt is not { } p) return new ScreenResult(false, false, First());
         double limit = giveUp + ScreenMargin + slack;
         ref int remembered = ref p.Both ? ref memo.Both : ref p.Up ? ref memo.Up : ref memo.Down;
         if (remembered > i && remembered < _k && p.Deviation(remembered) >= limit) return new ScreenResult(true, p.Up, null);
@@ -67,7 +70,7 @@ public sealed partial class TailSearch
             remembered = j;
             return new ScreenResult(true, p.Up, null);
         }
-        return new ScreenResult(false, p.Up, HurwitzZeta.FromScaled(z0, a0 * _lnV[i]));
+        return new ScreenResult(false, p.Up, First());
     }
 
     /// <summary>
@@ -78,8 +81,9 @@ public sealed partial class TailSearch
     /// </summary>
     private (ZetaValue Z0, ScreenPoint? Points, double Slack) ScreenAt(int i, double a0)
     {
-        // ζ·v_i^α₀ and its derivatives (no logarithm: the bound points need 1/ζ·v_i^α₀ only)
-        var z0 = HurwitzZeta.ScaledAt(a0, _v[i], _lnV[i], true);
+        // ζ·v_i^α₀ and its derivatives (no logarithm: the bound points need 1/ζ·v_i^α₀ only); in fewer divisions from
+        // v_i = 12 on, where a few 1e-16 of difference are far inside the margin
+        var z0 = _v[i] >= QuickFrom ? HurwitzZeta.ScaledQuick(a0, _v[i], _lnV[i]) : HurwitzZeta.ScaledAt(a0, _v[i], _lnV[i], true);
         double r1 = z0.D1 / z0.Value, r2 = z0.D2 / z0.Value;   // ζ'/ζ and ζ''/ζ, as LogAt gives them
         double score = -_lnSuffix[i] / _nSuffix[i] - r1;
         double info = r2 - r1 * r1;
