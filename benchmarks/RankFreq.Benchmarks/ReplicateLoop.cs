@@ -41,7 +41,7 @@ internal static class ReplicateLoop
             var t0 = Process.GetCurrentProcess().TotalProcessorTime;
             double check = 0;
             if (spectra.Count > 0)
-                foreach (var (sv, sm) in spectra) check += new TailSearch(sv, sm, sv.Length, buf.Search).Search(50).Alpha;
+                foreach (var (sv, sm) in spectra) check += new TailSearch(sv, sm, sv.Length, buf.Search).Search(50, 0, pl.Xmin).Alpha;
             else
                 for (int r = 0; r < reps; r++) { Draw(r); check += buf.Count; }
             var t1 = Process.GetCurrentProcess().TotalProcessorTime;

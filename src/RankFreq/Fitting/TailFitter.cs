@@ -50,7 +50,7 @@ public static class TailFitter
                 if (options.Xmin <= 0) Synthetic.Multinomial(rng, v, m, 0, from, nTypes - nTail, buf);
                 Synthetic.PowerLawTail(rng, pl.Alpha, pl.Xmin, nTail, buf, cells);
                 var s = buf.NewSearch();
-                var f = s.Search(options.MinTail, options.Xmin);
+                var f = s.Search(options.MinTail, options.Xmin, pl.Xmin);
                 d[r] = f.Status == FitStatus.Ok ? f.KsDistance : double.NaN;
                 int k = Interlocked.Increment(ref done);
                 if ((k & 63) == 0) progress?.Report(new FitProgress("goodness of fit", k, options.Reps));
@@ -75,7 +75,7 @@ public static class TailFitter
                 var rng = new Xoshiro(options.Seed, CiStream, (ulong)r);
                 buf.Clear();
                 Synthetic.Multinomial(rng, plan, nTypes, buf);
-                var f = buf.NewSearch().Search(options.MinTail, options.Xmin);
+                var f = buf.NewSearch().Search(options.MinTail, options.Xmin, pl.Xmin);
                 bool ok = f.Status == FitStatus.Ok;
                 alpha[r] = ok ? f.Alpha : nan; xmin[r] = ok ? f.Xmin : nan; ntail[r] = ok ? f.NTail : nan;
                 int k = Interlocked.Increment(ref done);

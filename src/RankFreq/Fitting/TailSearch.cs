@@ -27,6 +27,12 @@ namespace RankFreq.Fitting;
 /// close to O(k log k). <see cref="SearchFullScan"/> keeps the point-by-point scan as the reference.</para>
 /// <para>Before a candidate is fitted, an exact lower bound on its KS distance from one ζ evaluation at the predicted
 /// Newton start drops it when it cannot beat the best so far (TailSearch.Screen.cs, with its proof sketch).</para>
+/// <para>A KS walk with a give-up level first evaluates the two points at the value where the previous walk of the
+/// same search peaked; the deviation at any point of the tail is a lower bound on the supremum, so when it reaches the
+/// level by more than 1e-9 the candidate is abandoned there (it could not have beaten the best), and otherwise nothing
+/// of the probe is kept, so the walk computes the same distance to the bit. Bootstrap replicates visit the data's
+/// xmin first (<see cref="Search(int, long, long)"/>): the order does not change the choice (smallest distance, ties
+/// to the lower index) and only moves the warm starts, so α agrees to the Newton tolerance.</para>
 /// </remarks>
 public sealed partial class TailSearch
 {
@@ -436,10 +442,17 @@ public sealed partial class TailSearch
     /// </summary>
     public PowerLawFit Search(int minTail, long fixedXmin = 0) => SearchCore(minTail, fixedXmin, full: false);
 
-    /// <summary>Reference implementation of <see cref="Search"/>: every candidate's KS distance point by point.</summary>
+    /// <summary><see cref="Search(int, long)"/> visiting the candidate at <paramref name="firstXmin"/> (the first value at or above
+    /// it) before all others: a bootstrap replicate's KS-best xmin is usually near the data's, so the best distance is
+    /// small from the start and the other candidates are screened instead of fitted. The result is the same candidate
+    /// (the choice is the smallest distance, ties to the lower index, whatever the order), with α the same Newton root
+    /// to its tolerance (the warm starts follow the order).</summary>
+    internal PowerLawFit Search(int minTail, long fixedXmin, long firstXmin) => SearchCore(minTail, fixedXmin, full: false, firstXmin);
+
+    /// <summary>Reference implementation of <see cref="Search(int, long)"/>: every candidate's KS distance point by point.</summary>
     internal PowerLawFit SearchFullScan(int minTail, long fixedXmin = 0) => SearchCore(minTail, fixedXmin, full: true);
 
-    private PowerLawFit SearchCore(int minTail, long fixedXmin, bool full)
+    private PowerLawFit SearchCore(int minTail, long fixedXmin, bool full, long firstXmin = 0)
     {
         long total = _nSuffix[0];
         if (total == 1)
@@ -467,18 +480,21 @@ public sealed partial class TailSearch
         // every stride-th candidate first, so that the best distance is small early and the rest are abandoned sooner;
         // ties go to the lower index as in the full scan (a lower-index candidate is abandoned only above the best).
         int stride = full ? 1 : Math.Max(1, (int)Math.Sqrt(candidates));
+        // pass 0 visits only the candidate asked for first (if any), pass 1 the sample, pass 2 the rest
+        int first0 = full || firstXmin <= 0 ? -1 : IndexOf(firstXmin);
+        if (first0 >= candidates) first0 = -1;
         // Pruned search only: candidates whose KS distance provably reaches the best so far are dropped after one ζ
         // evaluation (TailSearch.Screen.cs); their interior status is then unknown when the test was above the start
         bool screened = false;
         var memo = new ScreenMemo();
-        for (int pass = 0; pass < (stride > 1 ? 2 : 1); pass++)
+        for (int pass = first0 >= 0 ? 0 : 1; pass < (stride > 1 ? 3 : 2); pass++)
         {
             double warm = best?.Alpha ?? 2;
             double offset = double.NaN; // α − closed-form approximation at the last interior fit: predicts the next start
-            for (int i = 0; i < candidates; i++)
+            for (int i = pass == 0 ? first0 : 0; i < (pass == 0 ? first0 + 1 : candidates); i++)
             {
                 bool sampled = i % stride == 0;
-                if (stride > 1 && sampled != (pass == 0)) continue;
+                if (pass > 0 && (i == first0 || stride > 1 && sampled != (pass == 1))) continue;
                 double giveUp = i < bestI ? Math.BitIncrement(bestD) : bestD;
                 PowerLawFit f;
                 double lnZeta = double.NaN;

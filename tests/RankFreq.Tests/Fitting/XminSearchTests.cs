@@ -35,7 +35,13 @@ public class XminSearchTests
         {
             var buf = RandomSpectrum(seed);
             var s = new TailSearch(buf.Values, buf.Mult, buf.Count);
-            AssertSameFit(s.SearchFullScan(20), s.Search(20), seed);
+            var full = s.SearchFullScan(20);
+            AssertSameFit(full, s.Search(20), seed);
+            // a candidate visited first (as the bootstraps do with the data's xmin): any value, in or out of range
+            long firstXmin = (long)(seed * 7919 % (ulong)(buf.Values[buf.Count - 1] + 5));
+            AssertSameFit(full, new TailSearch(buf.Values, buf.Mult, buf.Count).Search(20, 0, firstXmin), seed);
+            if (full.Status == FitStatus.Ok)
+                AssertSameFit(full, new TailSearch(buf.Values, buf.Mult, buf.Count).Search(20, 0, full.Xmin + 1), seed);
         }
     }
 
