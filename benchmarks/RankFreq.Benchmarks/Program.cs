@@ -19,7 +19,11 @@ if (args.Length > 1 && args[0] == "xmin-search") { XminSearchTiming.Run(args[1],
 if (args.Length > 2 && args[0] == "tail-spectrum") { TailSpectrum.Run(args[1], args[2]); return 0; }
 if (args.Length > 2 && args[0] == "search-profile") { SearchProfile.Run(args[1], int.Parse(args[2])); return 0; }
 if (args.Length > 2 && args[0] == "replicate-timing") { ReplicateTiming.Run(args[1], int.Parse(args[2])); return 0; }
-if (args.Length > 3 && args[0] == "replicate-loop") { ReplicateLoop.Run(args[1], int.Parse(args[2]), args[3]); return 0; }
+if (args.Length > 3 && args[0] == "replicate-loop")
+{
+    ReplicateLoop.Run(args[1], int.Parse(args[2]), args[3], args.Length > 4 ? int.Parse(args[4]) : 2);
+    return 0;
+}
 if (args.Length > 1 && args[0] == "alternatives-profile") { AlternativesProfile.Run(args[1]); return 0; }
 if (args.Length > 0 && args[0] == "duckdb-recipe") return DuckDbRecipe.Run(args[1..]);
 BenchmarkSwitcher.FromAssembly(typeof(Kernels).Assembly).Run(args);

@@ -4,11 +4,11 @@ using RankFreq.Fitting;
 /// <summary>
 /// One part of the bootstrap replicates alone, for a profiler (perf) to look at: `gof-draw`, `gof-search`, `ci-draw`
 /// or `ci-search` on a spectrum file, seed 1. Search parts draw their spectra first (outside the timed loop); every
-/// part runs twice (the first round warms the JIT up) and prints CPU ms per replicate.
+/// part runs twice, or ROUNDS times (the first round warms the JIT up), and prints CPU ms per replicate.
 /// </summary>
 internal static class ReplicateLoop
 {
-    public static void Run(string file, int reps, string part)
+    public static void Run(string file, int reps, string part, int rounds = 2)
     {
         var pairs = File.ReadLines(file).Select(l => l.Split(',')).Select(p => (long.Parse(p[0]), long.Parse(p[1]))).ToArray();
         var v = pairs.Select(p => p.Item1).ToArray();
@@ -36,7 +36,7 @@ internal static class ReplicateLoop
         var spectra = new List<(long[] V, long[] M)>();
         if (part.EndsWith("search", StringComparison.Ordinal))
             for (int r = 0; r < reps; r++) { Draw(r); spectra.Add((buf.Values[..buf.Count], buf.Mult[..buf.Count])); }
-        for (int round = 0; round < 2; round++)
+        for (int round = 0; round < rounds; round++)
         {
             var t0 = Process.GetCurrentProcess().TotalProcessorTime;
             double check = 0;
