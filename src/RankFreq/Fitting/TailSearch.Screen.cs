@@ -25,12 +25,12 @@ public sealed partial class TailSearch
         return _halfL;
     }
 
-    /// <summary>Outcome of <see cref="Screen"/>: dropped or not, the side of α̂ tested, ln ζ with its ratios at the start.</summary>
-    private readonly record struct ScreenResult(bool Pruned, bool Upward, LogZeta? AtStart);
 
     /// <summary>
     /// Exact lower bound on candidate i's KS distance at its fitted α̂, from one ζ evaluation at the Newton start α₀;
     /// the candidate is dropped when the bound reaches <paramref name="giveUp"/> (it could not beat the best so far).
+    /// Returns true when dropped, with <paramref name="upward"/> the side of α̂ tested; a candidate kept gets in
+    /// <paramref name="atStart"/> ln ζ with its ratios at the start when they are the fit's first iteration (else NaN).
     /// </summary>
     /// <remarks>
     /// Proof sketch. (1) The discrete power laws on x ≥ xmin are ordered in α: p_β(x)/p_α(x) ∝ x^(α−β) falls with x for
@@ -48,29 +48,33 @@ public sealed partial class TailSearch
     /// its sign and too large for that slack leaves the candidate to be fitted. So a dropped candidate has a KS distance at
     /// least the best so far (strictly above it for a lower index), and the full scan would not choose it either:
     /// the search returns the same xmin and α (tested against <see cref="SearchFullScan"/> on random spectra).
-    /// The evaluation at α₀ is the Newton iteration's first, so a candidate that survives costs nothing more than
-    /// the points tried. Points are tried where the previous candidate's bound was reached (neighbouring tails share
+    /// Below v_i = 12 the evaluation at α₀ is the Newton iteration's first (a candidate that survives costs nothing
+    /// more than the points tried); from 12 on the screen sums ζ in fewer divisions and a survivor's fit evaluates its own. Points are tried where the previous candidate's bound was reached (neighbouring tails share
     /// all but one value), then at offsets 0, 1, 3, 7, … from the candidate, at most <see cref="ScreenPoints"/>.
     /// </remarks>
-    private ScreenResult Screen(int i, double a0, double giveUp, ref ScreenMemo memo)
+    private bool Screen(int i, double a0, double giveUp, ref ScreenMemo memo, out bool upward, out LogZeta atStart)
     {
-        var (z0, pt, slack) = ScreenAt(i, a0);
+        upward = false;
+        atStart = new LogZeta(double.NaN, double.NaN, double.NaN);
+        if (ScreenAt(i, a0, out var z0, out var p, out double slack))
+        {
+            upward = p.Up;
+            double limit = giveUp + ScreenMargin + slack;
+            ref int remembered = ref p.Both ? ref memo.Both : ref p.Up ? ref memo.Up : ref memo.Down;
+            if (remembered > i && remembered < _k && p.Deviation(remembered) >= limit) return true;
+            int tried = 0;
+            for (long off = 0; i + off < _k && tried < ScreenPoints; off = 2 * off + 1, tried++)
+            {
+                int j = (int)(i + off);
+                if (j == remembered || p.Deviation(j) < limit) continue;
+                remembered = j;
+                return true;
+            }
+        }
         // ln ζ only for a candidate that goes on to be fitted (the values the fit's first iteration computes: from
         // the quick sums of large values the fit evaluates its own, so fitted α are the same to the bit)
-        LogZeta? First() => _v[i] >= QuickFrom ? null : HurwitzZeta.FromScaled(z0, a0 * _lnV[i]);
-        if (pt is not { } p) return new ScreenResult(false, false, First());
-        double limit = giveUp + ScreenMargin + slack;
-        ref int remembered = ref p.Both ? ref memo.Both : ref p.Up ? ref memo.Up : ref memo.Down;
-        if (remembered > i && remembered < _k && p.Deviation(remembered) >= limit) return new ScreenResult(true, p.Up, null);
-        int tried = 0;
-        for (long off = 0; i + off < _k && tried < ScreenPoints; off = 2 * off + 1, tried++)
-        {
-            int j = (int)(i + off);
-            if (j == remembered || p.Deviation(j) < limit) continue;
-            remembered = j;
-            return new ScreenResult(true, p.Up, null);
-        }
-        return new ScreenResult(false, p.Up, First());
+        if (_v[i] < QuickFrom) atStart = HurwitzZeta.FromScaled(z0, a0 * _lnV[i]);
+        return false;
     }
 
     /// <summary>
@@ -79,20 +83,23 @@ public sealed partial class TailSearch
     /// over |α̂ − α₀| ≤ 2δ + 1e-10·α₀ (|∂G(x)/∂α| = |Cov(1{X ≤ x}, ln X)| ≤ ½ sd ln X; taken as sd ln X for the change
     /// of the variance along the step).
     /// </summary>
-    private (ZetaValue Z0, ScreenPoint? Points, double Slack) ScreenAt(int i, double a0)
+    private bool ScreenAt(int i, double a0, out ZetaValue z0, out ScreenPoint points, out double slack)
     {
+        points = default; slack = 0;
         // ζ·v_i^α₀ and its derivatives (no logarithm: the bound points need 1/ζ·v_i^α₀ only); in fewer divisions from
         // v_i = 12 on, where a few 1e-16 of difference are far inside the margin
-        var z0 = _v[i] >= QuickFrom ? HurwitzZeta.ScaledQuick(a0, _v[i], _lnV[i]) : HurwitzZeta.ScaledAt(a0, _v[i], _lnV[i], true);
+        z0 = _v[i] >= QuickFrom ? HurwitzZeta.ScaledQuick(a0, _v[i], _lnV[i]) : HurwitzZeta.ScaledAt(a0, _v[i], _lnV[i], true);
         double r1 = z0.D1 / z0.Value, r2 = z0.D2 / z0.Value;   // ζ'/ζ and ζ''/ζ, as LogAt gives them
         double score = -_lnSuffix[i] / _nSuffix[i] - r1;
         double info = r2 - r1 * r1;
         double step = score / info;
-        if (!double.IsFinite(step) || !(info > 0)) return (z0, null, 0);
-        double slack = Math.Sqrt(info) * (2 * Math.Abs(step) + 1e-10 * a0);
-        bool both = slack <= 1e-6;
-        if (!both && !(Math.Abs(step) > 1e-9 * a0)) return (z0, null, 0);
-        return (z0, new ScreenPoint(this, i, a0, 1 / z0.Value, both, score > 0), both ? slack : 0);
+        if (!double.IsFinite(step) || !(info > 0)) return false;
+        double sl = Math.Sqrt(info) * (2 * Math.Abs(step) + 1e-10 * a0);
+        bool both = sl <= 1e-6;
+        if (!both && !(Math.Abs(step) > 1e-9 * a0)) return false;
+        points = new ScreenPoint(this, i, a0, 1 / z0.Value, both, score > 0);
+        slack = both ? sl : 0;
+        return true;
     }
 
     /// <summary>e^x for x ≥ 0: its Taylor series through x^7/7! below 0.02 (truncation &lt; 1e-18 relative; the usual
@@ -105,8 +112,7 @@ public sealed partial class TailSearch
     /// (NaN when the screen would not be applied); it must never exceed the KS distance at the fitted α.</summary>
     internal double ScreenBound(int i, double a0)
     {
-        var (_, pt, slack) = ScreenAt(i, a0);
-        if (pt is not { } p) return double.NaN;
+        if (!ScreenAt(i, a0, out _, out var p, out double slack)) return double.NaN;
         double b = double.NegativeInfinity;
         for (int j = i; j < _k; j++) b = Math.Max(b, p.Deviation(j));
         return b - ScreenMargin - slack;

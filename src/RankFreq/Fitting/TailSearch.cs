@@ -506,9 +506,8 @@ public sealed partial class TailSearch
                     LogZeta? first = null;
                     if (double.IsFinite(bestD) && i < _k - 1)
                     {
-                        var sc = Screen(i, start, giveUp, ref memo);
-                        if (sc.Pruned) { screened |= sc.Upward; continue; }
-                        first = sc.AtStart;
+                        if (Screen(i, start, giveUp, ref memo, out bool upward, out var atStart)) { screened |= upward; continue; }
+                        if (!double.IsNaN(atStart.Ln)) first = atStart;
                     }
                     f = FitCore(i, start, 0, first, out lnZeta);
                 }
