@@ -262,13 +262,14 @@ public sealed partial class TailSearch
             if (s._v[i] > xmin)
             {
                 // the empirical CDF is 0 on [xmin, v_i): the largest gap is at v_i − 1
-                T = Tail(s._v[i]);
+                T = Tail(i);
                 _x = s._v[i];
                 Raise(1 - T);
             }
         }
 
-        private readonly double Tail(long x) => Math.Exp(HurwitzZeta.LogValue(_alpha, x) - _lnZ0);
+        /// <summary>P(X ≥ v_j), ln v_j from the table (the same bits as HurwitzZeta.LogValue, one logarithm fewer).</summary>
+        private readonly double Tail(int j) => Math.Exp(HurwitzZeta.LogAt(_alpha, _s._v[j], _s._lnV[j], false).Ln - _lnZ0);
         private readonly double Pmf(double lnX) => Math.Exp(-_alpha * lnX - _lnZ0);
 
         private void Raise(double diff)
@@ -289,7 +290,7 @@ public sealed partial class TailSearch
         /// nothing is kept, so a walk that goes on computes every point as before (the same distance to the bit).</summary>
         public bool Probe(int w)
         {
-            double tw = Tail(_s._v[w]);                                   // P(X ≥ v_w)
+            double tw = Tail(w);                                   // P(X ≥ v_w)
             double below = (N - _s._nSuffix[w]) / N;                      // F at v_w − 1 (≥ v_i)
             double at = (N - _s._nSuffix[w + 1]) / N;                     // F at v_w
             double d = Math.Max(Math.Abs(below - (1 - tw)), Math.Abs(at - (1 - tw + Pmf(_s._lnV[w]))));
@@ -298,12 +299,15 @@ public sealed partial class TailSearch
             return true;
         }
 
-        /// <summary>Model mass P(X ≥ v) from P(X ≥ x) = tx, stepping when the gap is short.</summary>
-        private readonly double TailAt(long v, double tx, long x)
+        /// <summary>Model mass P(X ≥ v_jv) from P(X ≥ x) = tx, stepping when the gap is short (ln t from the table
+        /// where it has it: the same values as Math.Log).</summary>
+        private readonly double TailAt(int jv, double tx, long x)
         {
+            long v = _s._v[jv];
             if (v == x) return tx;
-            if (v - x > DenseSpan) return Tail(v);
-            for (long t = x; t < v; t++) tx -= Pmf(Math.Log(t));
+            if (v - x > DenseSpan) return Tail(jv);
+            var lnSmall = LnSmall;
+            for (long t = x; t < v; t++) tx -= Pmf((ulong)t < (ulong)lnSmall.Length ? lnSmall[t] : Math.Log(t));
             return tx;
         }
 
@@ -311,7 +315,7 @@ public sealed partial class TailSearch
         public bool Leaf(int j)
         {
             long v = _s._v[j];
-            T = TailAt(v, T, _x);
+            T = TailAt(j, T, _x);
             _x = v;
             C += _s._m[j];
             double f = C / N;
@@ -321,7 +325,7 @@ public sealed partial class TailSearch
             if (j + 1 < _s._k && _s._v[j + 1] > v + 1)
             {
                 // model CDF at v_{j+1} − 1 while the empirical CDF stays at f
-                T = TailAt(_s._v[j + 1], next, v + 1);
+                T = TailAt(j + 1, next, v + 1);
                 _x = _s._v[j + 1];
                 Raise(Math.Abs(f - (1 - T)), j + 1);
             }
@@ -362,7 +366,7 @@ public sealed partial class TailSearch
                         long next = j + 1 < _s._k ? _s._v[j + 1] : _s._v[j] + 1;
                         if (next > _s._v[j] + 1)
                         {
-                            t = j == blk.B ? blk.Tb : TailAt(next, t, _s._v[j] + 1);
+                            t = j == blk.B ? blk.Tb : TailAt(j + 1, t, _s._v[j] + 1);
                             Raise(Math.Abs(f - (1 - t)), j + 1);                          // v_{j+1} − 1
                         }
                     }
@@ -370,7 +374,7 @@ public sealed partial class TailSearch
                 }
                 int mid = (blk.A + blk.B) >> 1;
                 long vm = _s._v[mid + 1];
-                double tm = vm - _s._v[blk.A] <= DenseSpan ? TailAt(vm, blk.Ta, _s._v[blk.A]) : Tail(vm);
+                double tm = vm - _s._v[blk.A] <= DenseSpan ? TailAt(mid + 1, blk.Ta, _s._v[blk.A]) : Tail(mid + 1);
                 // x = v_{mid+1} − 1 is a point of the tail (v_mid itself when there is no gap): F = F(v_mid), G = 1 − tm
                 Raise(Math.Abs(F(mid) - (1 - tm)), mid + 1);
                 double ul = Bound(blk.A, mid, blk.Ta, tm), ur = Bound(mid + 1, blk.B, tm, blk.Tb);
