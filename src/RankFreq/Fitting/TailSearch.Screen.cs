@@ -49,8 +49,9 @@ public sealed partial class TailSearch
     /// least the best so far (strictly above it for a lower index), and the full scan would not choose it either:
     /// the search returns the same xmin and α (tested against <see cref="SearchFullScan"/> on random spectra).
     /// Below v_i = 12 the evaluation at α₀ is the Newton iteration's first (a candidate that survives costs nothing
-    /// more than the points tried); from 12 on the screen sums ζ in fewer divisions and a survivor's fit evaluates its own. Points are tried where the previous candidate's bound was reached (neighbouring tails share
-    /// all but one value), then at offsets 0, 1, 3, 7, … from the candidate, at most <see cref="ScreenPoints"/>.
+    /// more than the points tried); from 12 on the screen sums ζ in fewer divisions and a survivor's fit evaluates its
+    /// own. Points are tried where the previous candidate's bound was reached (neighbouring tails share all but one
+    /// value), then at offsets 0, 1, 3, 7, … from the candidate, at most <see cref="ScreenPoints"/>.
     /// </remarks>
     private bool Screen(int i, double a0, double giveUp, ref ScreenMemo memo, out bool upward, out LogZeta atStart)
     {
