@@ -113,6 +113,46 @@ public class HighCardinalityTests(HighCardinalityTests.InputFixture input) : ICl
         Assert.Empty(Directory.GetFileSystemEntries(d.Path)); // every run removed
     }
 
+    /// <summary>Types seen by each checkpoint in corpus order, from the text itself.</summary>
+    internal static long[] ReferenceGrowth(string text, long[] checkpoints)
+    {
+        var seen = new HashSet<string>(StringComparer.Ordinal);
+        var types = new long[checkpoints.Length];
+        long n = 0;
+        int c = 0;
+        foreach (var t in text.Split([' ', '\n'], StringSplitOptions.RemoveEmptyEntries))
+        {
+            seen.Add(t);
+            n++;
+            while (c < checkpoints.Length && checkpoints[c] == n) types[c++] = seen.Count;
+        }
+        return types;
+    }
+
+    [Theory]
+    [InlineData(2, 0L, 1000, "words")]         // routed by hash after 1,000 types, in memory
+    [InlineData(3, 0L, 1, "words")]            // three partitions, routed from the first type on
+    [InlineData(2, 0L, 1, "whitespace")]       // every token through AddToken (no packed batches)
+    [InlineData(2, 4L << 20, 1000, "words")]   // partitions spilled under a budget
+    [InlineData(2, 256L << 10, 1, "words")]    // hundreds of runs
+    public void RoutedCountsEqualADictionaryCountWithExactGrowth(int threads, long budget, int routeAbove, string tokenizer)
+    {
+        var (path, expected) = (input.Path, input.Rows);
+        using var d = new TempDir();
+        using var r = CountJob.Count([path], new CountSettings(Tokenizer: tokenizer, Threads: threads, MemoryBytes: budget,
+            TempDirectory: d.Path, SplitAboveBytes: 64 << 10, RouteAboveTypes: routeAbove));
+        var got = CountingTests.Rows(r.Rows);
+        Assert.Equal(expected.Count, r.Summary.Types);
+        Assert.Equal(expected.Sum(x => x.Count), r.Summary.Tokens);
+        Assert.Equal(RowsHash(expected.Select(x => ((string?)x.Token, x.Count))), RowsHash(got));
+        // first positions stay exact although several threads feed each partition's table in any order
+        Assert.Equal(ReferenceGrowth(File.ReadAllText(path), r.Growth.Tokens), r.Growth.Types);
+        if (budget == 256L << 10) Assert.True(r.Summary.SpilledRuns >= 100, $"only {r.Summary.SpilledRuns} runs");
+        if (budget == 0) Assert.Equal(0, r.Summary.SpilledRuns);
+        r.Dispose();
+        Assert.Empty(Directory.GetFileSystemEntries(d.Path));
+    }
+
     [Fact]
     public void MergerUnderATinyBudgetEqualsADictionaryCount()
     {
