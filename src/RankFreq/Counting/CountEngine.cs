@@ -44,8 +44,9 @@ public static partial class CountEngine
             if (pass.Tokenizer.Identity == TokenIdentity.Ids)
                 (rows, spectrum) = RankIds(pass.Tokenizer, pass.Workers.Select(w => (w.IdCounts!, w.IdFirst!)), growth);
             else
-                (rows, spectrum) = RankBuilder.Build(pass.Routed is { Used: true } routed ? routed.Tables
-                    : pass.Workers.Select(w => w.Table).ToList(), pass.Spill, pass.Budget, growth);
+                (rows, spectrum) = pass.Routed is { Used: true } routed
+                    ? RankBuilder.Build(routed.Tables, pass.Spill, pass.Budget, growth, disjoint: true)
+                    : RankBuilder.Build(pass.Workers.Select(w => w.Table).ToList(), pass.Spill, pass.Budget, growth);
             handedOver = true;
             return new CountResult(pass.Summary(tokens, spectrum.TypeCount), rows, spectrum, growth.ToCurve(), pass.Tokenizer.Identity == TokenIdentity.Ids);
         }
@@ -296,7 +297,9 @@ public static partial class CountEngine
 
         private void StartRouting()
         {
-            int parts = _shared!.Parts;
+            // one worker past the threshold switches them all (a worker started later begins routing at once)
+            _shared!.Active = true;
+            int parts = _shared.Parts;
             _filling = new RouteBatch[parts];
             _waiting = new Queue<RouteBatch>[parts];
             for (int p = 0; p < parts; p++) { _filling[p] = new RouteBatch(); _waiting[p] = new Queue<RouteBatch>(); }
@@ -380,7 +383,7 @@ public static partial class CountEngine
                 return;
             }
             Table.Add(utf8, 1, KeyPacking.PackPosition(_unit, _pos));
-            if (_shared is not null && Table.Count >= _routeAbove) StartRouting();
+            if (_shared is not null && (Table.Count >= _routeAbove || _shared.Active)) StartRouting();
             // the table says when it held back a growth to stay under the budget: spill before memory doubles
             if ((++_pos & 0xFFFF) == 0 || Table.OverLimit) CheckMemory();
         }
@@ -399,7 +402,7 @@ public static partial class CountEngine
                 return;
             }
             Table.AddPacked(tokens, first);
-            if (_shared is not null && Table.Count >= _routeAbove) StartRouting();
+            if (_shared is not null && (Table.Count >= _routeAbove || _shared.Active)) StartRouting();
             long before = _pos;
             _pos += tokens.Length;
             // memory is looked at every 65,536 tokens, as in AddToken: a run per batch would flood the spill folder

@@ -28,6 +28,15 @@ internal sealed class GrowthHistogram(long[] checkpoints, long[]? unitStart)
         _hist[lo]++;
     }
 
+    /// <summary>An empty histogram with the same checkpoints, to fill on another thread and <see cref="Absorb"/>.</summary>
+    public GrowthHistogram Fork() => new(checkpoints, unitStart);
+
+    /// <summary>Adds the types recorded in <paramref name="other"/> (a <see cref="Fork"/> of this one).</summary>
+    public void Absorb(GrowthHistogram other)
+    {
+        for (int i = 0; i < _hist.Length; i++) _hist[i] += other._hist[i];
+    }
+
     public GrowthCurve ToCurve()
     {
         if (unitStart is null) return new GrowthCurve([], []);

@@ -49,6 +49,11 @@ internal sealed class RoutedTables
     /// <summary>Number of partitions.</summary>
     public int Parts => _tables.Length;
 
+    private volatile bool _active;
+
+    /// <summary>Set by the first worker that starts routing; every worker routes from then on.</summary>
+    public bool Active { get => _active; set => _active = value; }
+
     /// <summary>Whether any worker has routed tokens here.</summary>
     public bool Used { get; private set; }
 

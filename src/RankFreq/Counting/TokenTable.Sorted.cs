@@ -41,6 +41,59 @@ internal sealed unsafe partial class TokenTable
     }
 
     /// <summary>
+    /// Every type of the table in rank order, as <see cref="Sorted"/> with <c>byCount</c> gives it, by a counting sort
+    /// on the count (counts below 65,536 placed by bucket, larger ones first and compared) and then a sort of each
+    /// bucket by key alone: no count comparisons, and the buckets are small except the lowest counts'. With
+    /// <paramref name="parallel"/>, large buckets are sorted on two threads.
+    /// </summary>
+    public SortedTypes SortedByRank(bool parallel)
+    {
+        const int Buckets = 1 << 16;
+        var entries = Entries;
+        int n = entries.Length;
+        var hist = new int[Buckets];
+        foreach (ref readonly var e in entries) hist[e.Count < Buckets ? (int)e.Count : 0]++;
+        // bucket starts: large counts (bucket 0; no count is 0) first, then counts descending
+        var next = new int[Buckets];
+        int at = hist[0];
+        for (int c = Buckets - 1; c >= 1; c--) { next[c] = at; at += hist[c]; }
+        var keys = (SortKey*)NativeBlock.Alloc((long)Math.Max(1, n) * sizeof(SortKey));
+        try
+        {
+            for (int i = 0; i < n; i++)
+            {
+                ref readonly var e = ref entries[i];
+                var k = Key(e);
+                KeyPacking.Pack16(k[..Math.Min(16, k.Length)], out ulong a, out ulong b);
+                int bucket = e.Count < Buckets ? (int)e.Count : 0;
+                keys[next[bucket]++] = new SortKey(e.Count, BinaryPrimitives.ReverseEndianness(a),
+                    BinaryPrimitives.ReverseEndianness(b), e.First, k.Length, i);
+            }
+            var byRank = new SortKeyComparer(this, byCount: true);
+            var byKey = new SortKeyComparer(this, byCount: false);
+            if (hist[0] > 1) byRank.Sort(keys, 0, hist[0] - 1);
+            for (int c = 1; c < Buckets; c++)
+            {
+                // buckets lie in descending count order: bucket c ends where its pointer stopped
+                int size = hist[c];
+                if (size == 0) continue;
+                int lo = next[c] - size;
+                if (size > 1)
+                {
+                    if (parallel) byKey.SortParallel(keys + lo, size);
+                    else byKey.Sort(keys, lo, lo + size - 1);
+                }
+            }
+            return new SortedTypes(this, keys, n);
+        }
+        catch
+        {
+            NativeBlock.Free(keys, (long)Math.Max(1, n) * sizeof(SortKey));
+            throw;
+        }
+    }
+
+    /// <summary>
     /// Frees the slots of a table whose counting is over (counts are copied into the entries first): entries and keys
     /// stay readable; nothing may be added until <see cref="Clear"/>.
     /// </summary>

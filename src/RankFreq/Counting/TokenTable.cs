@@ -406,14 +406,18 @@ internal sealed unsafe partial class TokenTable : IDisposable
     /// </summary>
     private readonly struct SortKeyComparer(TokenTable t, bool byCount)
     {
+        [MethodImpl(MethodImplOptions.AggressiveInlining)]
         public int Compare(in SortKey x, in SortKey y)
         {
             if (byCount && x.Count != y.Count) return x.Count > y.Count ? -1 : 1;
             if (x.A != y.A) return x.A < y.A ? -1 : 1;
             if (x.B != y.B) return x.B < y.B ? -1 : 1;
             if (x.Len <= 16 && y.Len <= 16) return x.Len.CompareTo(y.Len);
-            return t.Key(t._entries[x.Index]).SequenceCompareTo(t.Key(t._entries[y.Index]));
+            return CompareArena(x.Index, y.Index);
         }
+
+        [MethodImpl(MethodImplOptions.NoInlining)]
+        private int CompareArena(int x, int y) => t.Key(t._entries[x]).SequenceCompareTo(t.Key(t._entries[y]));
 
         /// <summary>Sorts; a large array is split by one partition step and its two sides sorted on two threads.</summary>
         public void SortParallel(SortKey* a, int n)
