@@ -17,14 +17,16 @@ internal sealed class GrowthHistogram(long[] checkpoints, long[]? unitStart)
     {
         if (unitStart is null || first == long.MaxValue) return;
         long global = unitStart[(int)(first >> 40)] + (first & ((1L << 40) - 1));
-        // first checkpoint c with checkpoints[c] > global: the type is counted from there on
-        int lo = 0, hi = checkpoints.Length;
-        while (lo < hi)
+        // first checkpoint c with checkpoints[c] > global: the type is counted from there on. Halving without a branch
+        // on the comparison (a conditional move): first positions come in no order, so a branch would mispredict
+        int lo = 0, n = checkpoints.Length;
+        while (n > 1)
         {
-            int mid = (lo + hi) >>> 1;
-            if (checkpoints[mid] > global) hi = mid;
-            else lo = mid + 1;
+            int half = n >> 1;
+            lo = checkpoints[lo + half - 1] <= global ? lo + half : lo;
+            n -= half;
         }
+        if (n == 1 && checkpoints[lo] <= global) lo++;
         _hist[lo]++;
     }
 

@@ -78,11 +78,7 @@ internal sealed unsafe partial class TokenTable
                 int size = hist[c];
                 if (size == 0) continue;
                 int lo = next[c] - size;
-                if (size > 1)
-                {
-                    if (parallel) byKey.SortParallel(keys + lo, size);
-                    else byKey.Sort(keys, lo, lo + size - 1);
-                }
+                if (size > 1) RadixThenSort(byKey, keys + lo, size, 56, parallel);
             }
             return new SortedTypes(this, keys, n);
         }
@@ -91,6 +87,52 @@ internal sealed unsafe partial class TokenTable
             NativeBlock.Free(keys, (long)Math.Max(1, n) * sizeof(SortKey));
             throw;
         }
+    }
+
+    /// <summary>
+    /// Sorts <paramref name="n"/> records by key: in place by the key byte at <paramref name="shift"/> of the first
+    /// word (American flag sort: each record moved once to its byte's bucket), for the first two bytes, then each
+    /// bucket by comparison. The byte order is the comparison's order (big-endian words compared unsigned), so the
+    /// result is the same; the quicksort only sees buckets of keys that share two bytes.
+    /// </summary>
+    private static void RadixThenSort(SortKeyComparer byKey, SortKey* a, int n, int shift, bool parallel)
+    {
+        if (n < 4096 || shift < 48)
+        {
+            if (parallel) byKey.SortParallel(a, n);
+            else byKey.Sort(a, 0, n - 1);
+            return;
+        }
+        var head = new int[257];
+        for (int i = 0; i < n; i++) head[(int)(a[i].A >> shift) & 255]++;
+        var start = new int[257];
+        for (int d = 0, sum = 0; d < 256; d++) { start[d] = sum; sum += head[d]; }
+        start[256] = n;
+        Array.Copy(start, head, 257);
+        for (int d = 0; d < 256; d++)
+        {
+            int end = start[d + 1];
+            while (head[d] < end)
+            {
+                var v = a[head[d]];
+                int digit = (int)(v.A >> shift) & 255;
+                while (digit != d)
+                {
+                    (v, a[head[digit]]) = (a[head[digit]], v);
+                    head[digit]++;
+                    digit = (int)(v.A >> shift) & 255;
+                }
+                a[head[d]++] = v;
+            }
+        }
+        nint p = (nint)a;
+        void Bucket(int d)
+        {
+            int size = start[d + 1] - start[d];
+            if (size > 1) RadixThenSort(byKey, (SortKey*)p + start[d], size, shift - 8, false);
+        }
+        if (parallel && n >= 1 << 15) Parallel.For(0, 256, Bucket);
+        else for (int d = 0; d < 256; d++) Bucket(d);
     }
 
     /// <summary>

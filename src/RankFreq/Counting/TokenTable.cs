@@ -150,8 +150,9 @@ internal sealed unsafe partial class TokenTable : IDisposable
 
     private void SyncCounts()
     {
+        // a type seen once has its count in the entry already (the slot's is 0): no write into the entries for it
         foreach (ref var s in new Span<Slot>(_slots, _slotCount))
-            if (s.Entry != 0)
+            if (s.Count != 0)
             {
                 _entries[s.Entry - 1].Count += s.Count;
                 s.Count = 0;
