@@ -48,6 +48,8 @@ internal static class RankBuilder
                 if (ids is not null) ids[r] = sorted.IdAt(r);
                 growth.Add(sorted.FirstAt(r));
             }
+            // short keys only: the strings come from the sort records, so the table can go before they are made
+            main.ReleaseIfSortRecordsSuffice();
             // the strings, on all cores (reads only), from the sort records in rank order
             Parallel.For(0, (n + 8191) / 8192, part =>
             {

@@ -108,6 +108,8 @@ internal static class SortedMerge
                 var sorted = parts[i] = tables[i].SortedByRank(parallel: false);
                 var g = growths[i] = growth.Fork();
                 for (int r = 0; r < sorted.Length; r++) g.Add(sorted.FirstAt(r));
+                // short keys only: the sort records are all that is read from here on
+                tables[i].ReleaseIfSortRecordsSuffice();
             });
             foreach (var g in growths) growth.Absorb(g);
 

@@ -150,6 +150,21 @@ internal sealed unsafe partial class TokenTable
     /// <summary>Whether any key was added with a vocabulary id (otherwise every id is -1).</summary>
     private bool _hasIds;
 
+    /// <summary>Whether any key is longer than 16 bytes (only those are read from the arena once sorted).</summary>
+    private bool _hasLongKeys;
+
+    /// <summary>
+    /// Frees entries, key bytes and slots when sort records made before hold all that is left to read (every key of at
+    /// most 16 bytes, no ids): the rank step's peak is then lower by the table. The table must not be read again
+    /// except through those records, and is empty afterwards. Returns whether it was freed.
+    /// </summary>
+    internal bool ReleaseIfSortRecordsSuffice()
+    {
+        if (_hasLongKeys || _hasIds) return false;
+        FreeAll();
+        return true;
+    }
+
     /// <summary>The sorted types of <see cref="Sorted"/>; valid while the table is unchanged.</summary>
     internal sealed class SortedTypes : IDisposable
     {

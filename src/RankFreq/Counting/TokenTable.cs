@@ -101,6 +101,7 @@ internal sealed unsafe partial class TokenTable : IDisposable
         _count = 0;
         _dirty = false;
         _hasIds = false;
+        _hasLongKeys = false;
     }
 
     /// <summary>Frees the table's memory; the table must not be used afterwards.</summary>
@@ -317,6 +318,7 @@ internal sealed unsafe partial class TokenTable : IDisposable
         }
         _entries[_count] = new Entry { Ref = Store(key), Len = key.Length, Id = id, Count = count, First = first };
         if (id != -1) _hasIds = true;
+        if (key.Length > 16) _hasLongKeys = true;
         _count++;
         s.K0 = k0;
         s.K1 = k1;

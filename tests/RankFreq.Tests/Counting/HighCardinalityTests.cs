@@ -39,7 +39,7 @@ public class HighCardinalityTests(HighCardinalityTests.InputFixture input) : ICl
     /// base 26, so a few words are very common and most are rare) and 40% random strings of 5 to 30 letters (nearly
     /// all new types; those over 16 bytes take the table's long-key path).
     /// </summary>
-    internal static string Text(int tokens, int seed)
+    internal static string Text(int tokens, int seed, int maxRandomLength = 30)
     {
         var rng = new Random(seed);
         var sb = new StringBuilder(tokens * 10);
@@ -54,7 +54,7 @@ public class HighCardinalityTests(HighCardinalityTests.InputFixture input) : ICl
             }
             else
             {
-                int len = 5 + rng.Next(26);
+                int len = 5 + rng.Next(maxRandomLength - 4);
                 for (int j = 0; j < len; j++) sb.Append((char)('a' + rng.Next(26)));
             }
             sb.Append(i % 15 == 14 ? '\n' : ' ');
@@ -151,6 +151,23 @@ public class HighCardinalityTests(HighCardinalityTests.InputFixture input) : ICl
         if (budget == 0) Assert.Equal(0, r.Summary.SpilledRuns);
         r.Dispose();
         Assert.Empty(Directory.GetFileSystemEntries(d.Path));
+    }
+
+    [Theory]
+    [InlineData(1)]
+    [InlineData(2)]
+    public void ShortKeysOnlyRankFromSortRecordsAlone(int threads)
+    {
+        // every key ≤ 16 bytes: the tables are freed before the strings are made (only the sort records are read)
+        using var d = new TempDir();
+        string text = Text(300_000, 5, maxRandomLength: 16);
+        File.WriteAllText(d["short.txt"], text);
+        var expected = ReferenceRows(text);
+        using var r = CountJob.Count([d["short.txt"]], new CountSettings(Threads: threads, SplitAboveBytes: 64 << 10,
+            RouteAboveTypes: 1000));
+        Assert.True(expected.Count > 100_000, $"the input should be high-cardinality ({expected.Count} types)");
+        Assert.Equal(RowsHash(expected.Select(x => ((string?)x.Token, x.Count))), RowsHash(CountingTests.Rows(r.Rows)));
+        Assert.Equal(ReferenceGrowth(text, r.Growth.Tokens), r.Growth.Types);
     }
 
     [Fact]
