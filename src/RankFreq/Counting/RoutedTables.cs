@@ -39,9 +39,10 @@ internal sealed class RoutedTables
         _budget = Math.Max(1, budget / parts);
         _tables = new TokenTable[parts];
         _locks = new object[parts];
+        var gate = new object();
         for (int i = 0; i < parts; i++)
         {
-            _tables[i] = new TokenTable { GrowthLimit = _budget };
+            _tables[i] = new TokenTable { GrowthLimit = _budget, GrowthGate = gate };
             _locks[i] = new object();
         }
     }

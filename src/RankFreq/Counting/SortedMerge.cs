@@ -16,7 +16,7 @@ namespace RankFreq.Counting;
 /// their bucket; the few larger ones are sorted by comparison and go first. The result is the same total order as
 /// ranking the merged table, so the rows are identical.
 /// </remarks>
-internal static class SortedMerge
+internal static unsafe class SortedMerge
 {
     /// <summary>Counts below this are placed by a counting sort; larger ones (at most tokens / this) are compared.</summary>
     private const int Buckets = 1 << 16;
@@ -29,6 +29,8 @@ internal static class SortedMerge
         bool withIds)
     {
         var parts = new TokenTable.SortedTypes[tables.Count];
+        Row* placed = null;
+        long placedBytes = 0;
         try
         {
             Parallel.For(0, tables.Count, i =>
@@ -59,7 +61,10 @@ internal static class SortedMerge
             int rows = checked((int)n);
             var counts = new long[rows];
             var ids = withIds ? new int[rows] : null;
-            var placed = new Row[rows];
+            // in a native block, freed as soon as the strings are made: as a managed array it stayed on the large
+            // object heap as garbage through the table's write, on top of the strings
+            placedBytes = (long)Math.Max(1, rows) * sizeof(Row);
+            placed = (Row*)NativeBlock.Alloc(placedBytes);
             long order = 0;
             Merge(tables, parts, (in Cursor c, long count, long first, int id) =>
             {
@@ -74,17 +79,19 @@ internal static class SortedMerge
             parts = [];
 
             var tokens = new string?[rows];
+            nint rowsAt = (nint)placed;
             Parallel.For(0, (rows + 8191) / 8192, part =>
             {
                 Span<byte> buffer = stackalloc byte[16];
                 for (int r = part * 8192, end = Math.Min(rows, r + 8192); r < end; r++)
-                    tokens[r] = Encoding.UTF8.GetString(KeyOf(tables, placed[r], buffer));
+                    tokens[r] = Encoding.UTF8.GetString(KeyOf(tables, ((Row*)rowsAt)[r], buffer));
             });
             return (tokens, counts, ids);
         }
         finally
         {
             foreach (var p in parts) p?.Dispose();
+            NativeBlock.Free(placed, placedBytes);
         }
     }
 
@@ -100,6 +107,8 @@ internal static class SortedMerge
         int k = tables.Count;
         var parts = new TokenTable.SortedTypes[k];
         var growths = new GrowthHistogram[k];
+        Row* placed = null;
+        long placedBytes = 0;
         try
         {
             Parallel.For(0, k, i =>
@@ -116,7 +125,10 @@ internal static class SortedMerge
             int rows = checked(parts.Sum(p => p.Length));
             var counts = new long[rows];
             var ids = withIds ? new int[rows] : null;
-            var placed = new Row[rows];
+            // in a native block, freed as soon as the strings are made: as a managed array it stayed on the large
+            // object heap as garbage through the table's write, on top of the strings
+            placedBytes = (long)Math.Max(1, rows) * sizeof(Row);
+            placed = (Row*)NativeBlock.Alloc(placedBytes);
             var pos = new int[k];
             for (int r = 0; r < rows; r++)
             {
@@ -137,17 +149,19 @@ internal static class SortedMerge
             parts = [];
 
             var tokens = new string?[rows];
+            nint rowsAt = (nint)placed;
             Parallel.For(0, (rows + 8191) / 8192, chunk =>
             {
                 Span<byte> buffer = stackalloc byte[16];
                 for (int r = chunk * 8192, end = Math.Min(rows, r + 8192); r < end; r++)
-                    tokens[r] = Encoding.UTF8.GetString(KeyOf(tables, placed[r], buffer));
+                    tokens[r] = Encoding.UTF8.GetString(KeyOf(tables, ((Row*)rowsAt)[r], buffer));
             });
             return (tokens, counts, ids);
         }
         finally
         {
             foreach (var p in parts) p?.Dispose();
+            NativeBlock.Free(placed, placedBytes);
         }
     }
 

@@ -129,6 +129,12 @@ internal sealed unsafe partial class TokenTable : IDisposable
     /// </summary>
     public long GrowthLimit { get; set; } = long.MaxValue;
 
+    /// <summary>
+    /// Shared by tables that grow at about the same time (the hash partitions of a routed count, balanced by the hash):
+    /// one of them rehashes at a time, so the old and doubled slot arrays of only one table are alive at once.
+    /// </summary>
+    public object? GrowthGate { get; set; }
+
     /// <summary>Set when the table held back a growth because of <see cref="GrowthLimit"/>; cleared by <see cref="Clear"/>.</summary>
     public bool OverLimit { get; private set; }
 
@@ -331,7 +337,8 @@ internal sealed unsafe partial class TokenTable : IDisposable
         {
             // spill before growth: under a limit the table fills to 3/4 and waits for its owner to spill it
             if (GrowthPeakBytes > GrowthLimit && (long)_count * 4 < 3L * _slotCount) OverLimit = true;
-            else Rehash();
+            else if (GrowthGate is null) Rehash();
+            else lock (GrowthGate) Rehash();
         }
     }
 
