@@ -44,7 +44,9 @@ public static partial class CountEngine
             if (pass.Tokenizer.Identity == TokenIdentity.Ids)
                 (rows, spectrum) = RankIds(pass.Tokenizer, pass.Workers.Select(w => (w.IdCounts!, w.IdFirst!)), growth);
             else
-                (rows, spectrum) = RankBuilder.Build(pass.Workers.Select(w => w.Table).ToList(), pass.Spill, pass.Budget, growth);
+                (rows, spectrum) = pass.Routed is { Used: true } routed
+                    ? RankBuilder.Build(routed.Tables, pass.Spill, pass.Budget, growth, disjoint: true)
+                    : RankBuilder.Build(pass.Workers.Select(w => w.Table).ToList(), pass.Spill, pass.Budget, growth);
             handedOver = true;
             return new CountResult(pass.Summary(tokens, spectrum.TypeCount), rows, spectrum, growth.ToCurve(), pass.Tokenizer.Identity == TokenIdentity.Ids);
         }
@@ -61,7 +63,7 @@ public static partial class CountEngine
     /// <summary>What one counting pass left: the workers' tables, per-unit token counts and the run's facts.</summary>
     private sealed record Pass(ITokenizer Tokenizer, IReadOnlyList<InputFile> Files, IReadOnlyList<SkippedFile> Skipped, IReadOnlyList<WorkUnit> Units,
         long[] UnitTokens, List<Worker> Workers, SpillSet Spill, long Budget, int Threads, Stopwatch Clock, SourceOptions Source,
-        long[] StdinBytes)
+        long[] StdinBytes, RoutedTables? Routed = null)
     {
         public SourceStats Stats()
         {
@@ -99,6 +101,10 @@ public static partial class CountEngine
         long budget = settings.EffectiveMemory;
         var groupSpills = groups is null ? null : new System.Collections.Concurrent.ConcurrentDictionary<string, SpillSet>(StringComparer.Ordinal);
         var workers = new List<Worker>();
+        // past RouteAboveTypes types in a worker's table, tokens go by hash to one table per thread (not grouped counts:
+        // their tables switch per document)
+        var routed = groups is null && threads > 1 && tokenizer.Identity != TokenIdentity.Ids
+            ? new RoutedTables(threads, spill, budget) : null;
         long done = 0;
         var stdinBytes = new long[1];
         using var timer = progress is null ? null : new Timer(_ =>
@@ -113,7 +119,8 @@ public static partial class CountEngine
                 () =>
                 {
                     var w = new Worker(tokenizer, spill, budget / threads,
-                        groupSpills is null ? null : label => groupSpills.GetOrAdd(label, _ => new SpillSet(settings.TempDirectory)));
+                        groupSpills is null ? null : label => groupSpills.GetOrAdd(label, _ => new SpillSet(settings.TempDirectory)),
+                        routed, settings.RouteAboveTypes);
                     lock (workers) workers.Add(w);
                     return w;
                 },
@@ -130,6 +137,12 @@ public static partial class CountEngine
                     return w;
                 },
                 _ => { });
+            if (routed is { Used: true })
+            {
+                // what is still in batches, and the tables of workers that never switched, go to their partitions
+                foreach (var w in workers) w.FinishRouting();
+                foreach (var w in workers) { routed.AddTable(w.Table); w.Table.Clear(); }
+            }
         }
         catch (AggregateException ae) when (ae.InnerExceptions.Count > 0)
         {
@@ -143,7 +156,8 @@ public static partial class CountEngine
             DisposeAll(spill, groupSpills);
             throw;
         }
-        return new Pass(tokenizer, files, skipped, units, unitTokens, workers, spill, budget, threads, sw, source, stdinBytes);
+        return new Pass(tokenizer, files, skipped, units, unitTokens, workers, spill, budget, threads, sw, source, stdinBytes,
+            routed);
     }
 
     private static void DisposeAll(SpillSet spill, System.Collections.Concurrent.ConcurrentDictionary<string, SpillSet>? groups)
@@ -189,9 +203,21 @@ public static partial class CountEngine
         private long _tokensBefore;
         private GroupPart? _group;
         private long _groupFrom;
+        private readonly RoutedTables? _shared;
+        private readonly int _routeAbove;
+        // routing: the batch being filled per partition, full batches waiting for their partition's lock, spare ones
+        private RouteBatch[]? _filling;
+        private Queue<RouteBatch>[]? _waiting;
+        private readonly Stack<RouteBatch> _spare = new();
+        private int _waitingCount;
+        /// <summary>Full batches a worker may hold back while their partitions are busy before it waits for one.</summary>
+        private const int MaxWaiting = 8;
 
-        public Worker(ITokenizer tok, SpillSet spill, long budget, Func<string, SpillSet>? groupSpill = null)
+        public Worker(ITokenizer tok, SpillSet spill, long budget, Func<string, SpillSet>? groupSpill = null,
+            RoutedTables? routed = null, int routeAbove = int.MaxValue)
         {
+            _shared = routed;
+            _routeAbove = routeAbove;
             _tok = tok;
             _spill = spill;
             _budget = budget;
@@ -266,16 +292,117 @@ public static partial class CountEngine
 
         public void Write(ReadOnlySpan<byte> utf8, bool endOfDocument) => _session.Feed(utf8, endOfDocument);
 
+        /// <summary>Whether tokens go to the routed partitions (this worker's table passed the routing threshold).</summary>
+        private bool Routing => _filling is not null;
+
+        private void StartRouting()
+        {
+            // one worker past the threshold switches them all (a worker started later begins routing at once)
+            _shared!.Active = true;
+            int parts = _shared.Parts;
+            _filling = new RouteBatch[parts];
+            _waiting = new Queue<RouteBatch>[parts];
+            for (int p = 0; p < parts; p++) { _filling[p] = new RouteBatch(); _waiting[p] = new Queue<RouteBatch>(); }
+            // what this worker counted so far moves to the partitions, so no type stays in two tables
+            _shared.AddTable(Table);
+            Table.Clear();
+        }
+
+        [MethodImpl(MethodImplOptions.AggressiveInlining)]
+        private void Route(ulong a, ulong b, int len, ulong h, long first, ReadOnlySpan<byte> longKey)
+        {
+            int p = RoutedTables.PartOf(h, _filling!.Length);
+            var batch = _filling[p];
+            if (len > 16)
+            {
+                batch.Reserve(len);
+                longKey.CopyTo(batch.LongKeys.AsSpan(batch.LongBytes));
+                a = (ulong)batch.LongBytes;
+                batch.LongBytes += len;
+            }
+            ref var t = ref batch.Tokens[batch.Count++];
+            t.A = a;
+            t.B = b;
+            t.Hash = h;
+            t.First = first;
+            t.Len = len;
+            if (batch.Count == RouteBatch.Size) Send(p);
+        }
+
+        /// <summary>Queues partition <paramref name="p"/>'s full batch and hands over whatever a free lock allows.</summary>
+        private void Send(int p)
+        {
+            _waiting![p].Enqueue(_filling![p]);
+            _waitingCount++;
+            _filling[p] = _spare.TryPop(out var s) ? s : new RouteBatch();
+            Drain(wait: _waitingCount > MaxWaiting);
+        }
+
+        private void Drain(bool wait)
+        {
+            var waiting = _waiting!;
+            for (int q = 0; q < waiting.Length; q++)
+            {
+                int n = waiting[q].Count;
+                if (n > 0 && _shared!.TryAdd(q, waiting[q], Recycle, wait: false)) _waitingCount -= n;
+            }
+            if (!wait || _waitingCount <= MaxWaiting) return;
+            // every lock we need is busy and too much is held back: wait for the partition with the most batches
+            int most = 0;
+            for (int q = 1; q < waiting.Length; q++) if (waiting[q].Count > waiting[most].Count) most = q;
+            int m = waiting[most].Count;
+            _shared!.TryAdd(most, waiting[most], Recycle, wait: true);
+            _waitingCount -= m;
+        }
+
+        private void Recycle(RouteBatch b)
+        {
+            b.Reset();
+            _spare.Push(b);
+        }
+
+        /// <summary>Hands every batch still held to its partition (after counting, on one thread).</summary>
+        public void FinishRouting()
+        {
+            if (!Routing) return;
+            for (int p = 0; p < _filling!.Length; p++)
+            {
+                if (_filling[p].Count > 0) { _waiting![p].Enqueue(_filling[p]); _filling[p] = new RouteBatch(); }
+                _shared!.TryAdd(p, _waiting![p], Recycle, wait: true);
+            }
+            _waitingCount = 0;
+            _spare.Clear();
+        }
+
         public void AddToken(ReadOnlySpan<byte> utf8)
         {
+            if (Routing)
+            {
+                _ = KeyPacking.ShortWords(utf8, out ulong a, out ulong b);
+                Route(a, b, utf8.Length, KeyPacking.Hash(utf8), KeyPacking.PackPosition(_unit, _pos++), utf8);
+                return;
+            }
             Table.Add(utf8, 1, KeyPacking.PackPosition(_unit, _pos));
+            if (_shared is not null && (Table.Count >= _routeAbove || _shared.Active)) StartRouting();
             // the table says when it held back a growth to stay under the budget: spill before memory doubles
             if ((++_pos & 0xFFFF) == 0 || Table.OverLimit) CheckMemory();
         }
 
         public void AddPackedTokens(ReadOnlySpan<PackedToken> tokens)
         {
-            Table.AddPacked(tokens, KeyPacking.PackPosition(_unit, _pos));
+            long first = KeyPacking.PackPosition(_unit, _pos);
+            if (Routing)
+            {
+                for (int i = 0; i < tokens.Length; i++)
+                {
+                    ref readonly var t = ref tokens[i];
+                    Route(t.Lo, t.Hi, t.Length, KeyPacking.Mix(t.Lo, t.Hi, t.Length), first + i, default);
+                }
+                _pos += tokens.Length;
+                return;
+            }
+            Table.AddPacked(tokens, first);
+            if (_shared is not null && (Table.Count >= _routeAbove || _shared.Active)) StartRouting();
             long before = _pos;
             _pos += tokens.Length;
             // memory is looked at every 65,536 tokens, as in AddToken: a run per batch would flood the spill folder

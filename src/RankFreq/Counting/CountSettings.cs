@@ -14,6 +14,9 @@ namespace RankFreq.Counting;
 /// <param name="ShardCount">Number of shards.</param>
 /// <param name="TempDirectory">Where spill runs go (default: the system temporary folder).</param>
 /// <param name="SplitAboveBytes">Plain text files larger than this are cut into newline-aligned ranges counted in parallel.</param>
+/// <param name="RouteAboveTypes">With more than one thread, once a worker's table holds this many types, tokens are
+/// routed by hash to one table per thread (each partition of the key space held once, no merge of worker tables);
+/// below it every worker counts into its own table, the faster way for small vocabularies.</param>
 public sealed record CountSettings(
     string Tokenizer = "words",
     SourceOptions? Source = null,
@@ -22,7 +25,8 @@ public sealed record CountSettings(
     int ShardIndex = 0,
     int ShardCount = 0,
     string? TempDirectory = null,
-    long SplitAboveBytes = 16L << 20)
+    long SplitAboveBytes = 16L << 20,
+    int RouteAboveTypes = 1 << 18)
 {
     /// <summary>Effective thread count.</summary>
     public int EffectiveThreads => Threads > 0 ? Threads : Environment.ProcessorCount;

@@ -12,11 +12,19 @@ namespace RankFreq.Counting;
 internal static class RankBuilder
 {
     public static (ICountRows Rows, FrequencySpectrum Spectrum) Build(List<TokenTable> tables, SpillSet spill, long budget,
-        GrowthHistogram growth, bool withIds = false)
+        GrowthHistogram growth, bool withIds = false, bool disjoint = false)
     {
-        if (spill.Phase1.Count == 0 && InMemoryBytes(tables) <= budget)
+        if (spill.Phase1.Count == 0 && InMemoryBytes(tables, disjoint) <= budget)
         {
             var filled = tables.Where(t => t.Count > 0).ToList();
+            if (filled.Count > 1 && disjoint)
+            {
+                // partitions of a routed count: ranked side by side, merged in rank order
+                var (tokensD, countsD, idsD) = SortedMerge.RankDisjoint(filled, growth, withIds);
+                foreach (var t in tables) t.Clear();
+                spill.Dispose();
+                return (new InMemoryRows(tokensD, idsD, countsD), FrequencySpectrum.FromCounts(countsD));
+            }
             if (filled.Count > 1)
             {
                 // several workers' tables: sorted side by side and merged in order (no hash-table merge)
@@ -29,7 +37,7 @@ internal static class RankBuilder
             var main = all[0];
             for (int i = 1; i < all.Count; i++) { main.MergeFrom(all[i]); all[i].Clear(); }
             main.FreeSlots(); // the slots are not read again: free them before the sort records are made
-            var sorted = main.Sorted(byCount: true);
+            var sorted = main.SortedByRank(parallel: true);
             int n = sorted.Length;
             var tokens = new string?[n];
             var counts = new long[n];
@@ -40,6 +48,8 @@ internal static class RankBuilder
                 if (ids is not null) ids[r] = sorted.IdAt(r);
                 growth.Add(sorted.FirstAt(r));
             }
+            // short keys only: the strings come from the sort records, so the table can go before they are made
+            main.ReleaseIfSortRecordsSuffice();
             // the strings, on all cores (reads only), from the sort records in rank order
             Parallel.For(0, (n + 8191) / 8192, part =>
             {
@@ -95,9 +105,10 @@ internal static class RankBuilder
     /// Bytes that ranking <paramref name="tables"/> in memory may hold at its peak: the tables, the merged table
     /// growing to at most their summed types (slots at 1/4 to 1/2 load side by side with the doubled array, and
     /// entries), the sort records (40 bytes), and per type a managed string (about 32 bytes plus two per key byte)
-    /// and its count.
+    /// and its count. Tables that share no key (<paramref name="disjoint"/>) are not merged: the tables, the sort
+    /// records, a placed row (24 bytes), the count and the string.
     /// </summary>
-    internal static long InMemoryBytes(IReadOnlyList<TokenTable> tables)
+    internal static long InMemoryBytes(IReadOnlyList<TokenTable> tables, bool disjoint = false)
     {
         long held = 0, types = 0, keyBytes = 0;
         foreach (var t in tables)
@@ -106,6 +117,7 @@ internal static class RankBuilder
             types += t.Count;
             foreach (ref readonly var e in t.Entries) keyBytes += e.Len;
         }
+        if (disjoint) return held + types * (40 + 24 + 8 + 8 + 32) + 2 * keyBytes;
         return held + types * (4 * 32 + 32 + 52 + 32 + 8) + 2 * keyBytes;
     }
 

@@ -16,7 +16,7 @@ namespace RankFreq.Counting;
 /// their bucket; the few larger ones are sorted by comparison and go first. The result is the same total order as
 /// ranking the merged table, so the rows are identical.
 /// </remarks>
-internal static class SortedMerge
+internal static unsafe class SortedMerge
 {
     /// <summary>Counts below this are placed by a counting sort; larger ones (at most tokens / this) are compared.</summary>
     private const int Buckets = 1 << 16;
@@ -29,6 +29,8 @@ internal static class SortedMerge
         bool withIds)
     {
         var parts = new TokenTable.SortedTypes[tables.Count];
+        Row* placed = null;
+        long placedBytes = 0;
         try
         {
             Parallel.For(0, tables.Count, i =>
@@ -59,7 +61,10 @@ internal static class SortedMerge
             int rows = checked((int)n);
             var counts = new long[rows];
             var ids = withIds ? new int[rows] : null;
-            var placed = new Row[rows];
+            // in a native block, freed as soon as the strings are made: as a managed array it stayed on the large
+            // object heap as garbage through the table's write, on top of the strings
+            placedBytes = (long)Math.Max(1, rows) * sizeof(Row);
+            placed = (Row*)NativeBlock.Alloc(placedBytes);
             long order = 0;
             Merge(tables, parts, (in Cursor c, long count, long first, int id) =>
             {
@@ -74,18 +79,102 @@ internal static class SortedMerge
             parts = [];
 
             var tokens = new string?[rows];
+            nint rowsAt = (nint)placed;
             Parallel.For(0, (rows + 8191) / 8192, part =>
             {
                 Span<byte> buffer = stackalloc byte[16];
                 for (int r = part * 8192, end = Math.Min(rows, r + 8192); r < end; r++)
-                    tokens[r] = Encoding.UTF8.GetString(KeyOf(tables, placed[r], buffer));
+                    tokens[r] = Encoding.UTF8.GetString(KeyOf(tables, ((Row*)rowsAt)[r], buffer));
             });
             return (tokens, counts, ids);
         }
         finally
         {
             foreach (var p in parts) p?.Dispose();
+            NativeBlock.Free(placed, placedBytes);
         }
+    }
+
+    /// <summary>
+    /// Ranks tables that share no key (the partitions of a routed count): each is put in rank order on its own thread
+    /// (<see cref="TokenTable.SortedByRank"/>, its growth recorded there too), then the rank-ordered streams are merged
+    /// (count descending, ties by key bytes: the order of <see cref="Primitives.RankOrder"/>), so the rows are those of
+    /// ranking one table holding every type. Frees the tables' slots on the way.
+    /// </summary>
+    public static (string?[] Tokens, long[] Counts, int[]? Ids) RankDisjoint(List<TokenTable> tables, GrowthHistogram growth,
+        bool withIds)
+    {
+        int k = tables.Count;
+        var parts = new TokenTable.SortedTypes[k];
+        var growths = new GrowthHistogram[k];
+        Row* placed = null;
+        long placedBytes = 0;
+        try
+        {
+            Parallel.For(0, k, i =>
+            {
+                tables[i].FreeSlots();
+                var sorted = parts[i] = tables[i].SortedByRank(parallel: false);
+                var g = growths[i] = growth.Fork();
+                for (int r = 0; r < sorted.Length; r++) g.Add(sorted.FirstAt(r));
+                // short keys only: the sort records are all that is read from here on
+                tables[i].ReleaseIfSortRecordsSuffice();
+            });
+            foreach (var g in growths) growth.Absorb(g);
+
+            int rows = checked(parts.Sum(p => p.Length));
+            var counts = new long[rows];
+            var ids = withIds ? new int[rows] : null;
+            // in a native block, freed as soon as the strings are made: as a managed array it stayed on the large
+            // object heap as garbage through the table's write, on top of the strings
+            placedBytes = (long)Math.Max(1, rows) * sizeof(Row);
+            placed = (Row*)NativeBlock.Alloc(placedBytes);
+            var pos = new int[k];
+            for (int r = 0; r < rows; r++)
+            {
+                // the head ranking first among the parts (k is the thread count: a linear scan)
+                int m = -1;
+                for (int i = 0; i < k; i++)
+                {
+                    if (pos[i] == parts[i].Length) continue;
+                    if (m < 0 || RankBefore(tables, parts, i, pos[i], m, pos[m])) m = i;
+                }
+                var part = parts[m];
+                int at = pos[m]++;
+                counts[r] = part.CountAt(at);
+                if (ids is not null) ids[r] = part.IdAt(at);
+                placed[r] = new Row(part.AAt(at), part.BAt(at), part.LenAt(at), m, part.IndexAt(at));
+            }
+            foreach (var p in parts) p.Dispose();
+            parts = [];
+
+            var tokens = new string?[rows];
+            nint rowsAt = (nint)placed;
+            Parallel.For(0, (rows + 8191) / 8192, chunk =>
+            {
+                Span<byte> buffer = stackalloc byte[16];
+                for (int r = chunk * 8192, end = Math.Min(rows, r + 8192); r < end; r++)
+                    tokens[r] = Encoding.UTF8.GetString(KeyOf(tables, ((Row*)rowsAt)[r], buffer));
+            });
+            return (tokens, counts, ids);
+        }
+        finally
+        {
+            foreach (var p in parts) p?.Dispose();
+            NativeBlock.Free(placed, placedBytes);
+        }
+    }
+
+    /// <summary>Whether type <paramref name="x"/> of part <paramref name="px"/> ranks before type <paramref name="y"/> of
+    /// part <paramref name="py"/>.</summary>
+    private static bool RankBefore(List<TokenTable> tables, TokenTable.SortedTypes[] parts, int px, int x, int py, int y)
+    {
+        TokenTable.SortedTypes a = parts[px], b = parts[py];
+        long ca = a.CountAt(x), cb = b.CountAt(y);
+        if (ca != cb) return ca > cb;
+        var cx = new Cursor { Part = px, A = a.AAt(x), B = a.BAt(x), Len = a.LenAt(x), Index = a.IndexAt(x) };
+        var cy = new Cursor { Part = py, A = b.AAt(y), B = b.BAt(y), Len = b.LenAt(y), Index = b.IndexAt(y) };
+        return Compare(tables, cx, cy) < 0;
     }
 
     private static ReadOnlySpan<byte> KeyOf(List<TokenTable> tables, in Row row, Span<byte> buffer)

@@ -41,6 +41,101 @@ internal sealed unsafe partial class TokenTable
     }
 
     /// <summary>
+    /// Every type of the table in rank order, as <see cref="Sorted"/> with <c>byCount</c> gives it, by a counting sort
+    /// on the count (counts below 65,536 placed by bucket, larger ones first and compared) and then a sort of each
+    /// bucket by key alone: no count comparisons, and the buckets are small except the lowest counts'. With
+    /// <paramref name="parallel"/>, large buckets are sorted on two threads.
+    /// </summary>
+    public SortedTypes SortedByRank(bool parallel)
+    {
+        const int Buckets = 1 << 16;
+        var entries = Entries;
+        int n = entries.Length;
+        var hist = new int[Buckets];
+        foreach (ref readonly var e in entries) hist[e.Count < Buckets ? (int)e.Count : 0]++;
+        // bucket starts: large counts (bucket 0; no count is 0) first, then counts descending
+        var next = new int[Buckets];
+        int at = hist[0];
+        for (int c = Buckets - 1; c >= 1; c--) { next[c] = at; at += hist[c]; }
+        var keys = (SortKey*)NativeBlock.Alloc((long)Math.Max(1, n) * sizeof(SortKey));
+        try
+        {
+            for (int i = 0; i < n; i++)
+            {
+                ref readonly var e = ref entries[i];
+                var k = Key(e);
+                KeyPacking.Pack16(k[..Math.Min(16, k.Length)], out ulong a, out ulong b);
+                int bucket = e.Count < Buckets ? (int)e.Count : 0;
+                keys[next[bucket]++] = new SortKey(e.Count, BinaryPrimitives.ReverseEndianness(a),
+                    BinaryPrimitives.ReverseEndianness(b), e.First, k.Length, i);
+            }
+            var byRank = new SortKeyComparer(this, byCount: true);
+            var byKey = new SortKeyComparer(this, byCount: false);
+            if (hist[0] > 1) byRank.Sort(keys, 0, hist[0] - 1);
+            for (int c = 1; c < Buckets; c++)
+            {
+                // buckets lie in descending count order: bucket c ends where its pointer stopped
+                int size = hist[c];
+                if (size == 0) continue;
+                int lo = next[c] - size;
+                if (size > 1) RadixThenSort(byKey, keys + lo, size, 56, parallel);
+            }
+            return new SortedTypes(this, keys, n);
+        }
+        catch
+        {
+            NativeBlock.Free(keys, (long)Math.Max(1, n) * sizeof(SortKey));
+            throw;
+        }
+    }
+
+    /// <summary>
+    /// Sorts <paramref name="n"/> records by key: in place by the key byte at <paramref name="shift"/> of the first
+    /// word (American flag sort: each record moved once to its byte's bucket), for the first two bytes, then each
+    /// bucket by comparison. The byte order is the comparison's order (big-endian words compared unsigned), so the
+    /// result is the same; the quicksort only sees buckets of keys that share two bytes.
+    /// </summary>
+    private static void RadixThenSort(SortKeyComparer byKey, SortKey* a, int n, int shift, bool parallel)
+    {
+        if (n < 4096 || shift < 48)
+        {
+            if (parallel) byKey.SortParallel(a, n);
+            else byKey.Sort(a, 0, n - 1);
+            return;
+        }
+        var head = new int[257];
+        for (int i = 0; i < n; i++) head[(int)(a[i].A >> shift) & 255]++;
+        var start = new int[257];
+        for (int d = 0, sum = 0; d < 256; d++) { start[d] = sum; sum += head[d]; }
+        start[256] = n;
+        Array.Copy(start, head, 257);
+        for (int d = 0; d < 256; d++)
+        {
+            int end = start[d + 1];
+            while (head[d] < end)
+            {
+                var v = a[head[d]];
+                int digit = (int)(v.A >> shift) & 255;
+                while (digit != d)
+                {
+                    (v, a[head[digit]]) = (a[head[digit]], v);
+                    head[digit]++;
+                    digit = (int)(v.A >> shift) & 255;
+                }
+                a[head[d]++] = v;
+            }
+        }
+        nint p = (nint)a;
+        void Bucket(int d)
+        {
+            int size = start[d + 1] - start[d];
+            if (size > 1) RadixThenSort(byKey, (SortKey*)p + start[d], size, shift - 8, false);
+        }
+        if (parallel && n >= 1 << 15) Parallel.For(0, 256, Bucket);
+        else for (int d = 0; d < 256; d++) Bucket(d);
+    }
+
+    /// <summary>
     /// Frees the slots of a table whose counting is over (counts are copied into the entries first): entries and keys
     /// stay readable; nothing may be added until <see cref="Clear"/>.
     /// </summary>
@@ -54,6 +149,21 @@ internal sealed unsafe partial class TokenTable
 
     /// <summary>Whether any key was added with a vocabulary id (otherwise every id is -1).</summary>
     private bool _hasIds;
+
+    /// <summary>Whether any key is longer than 16 bytes (only those are read from the arena once sorted).</summary>
+    private bool _hasLongKeys;
+
+    /// <summary>
+    /// Frees entries, key bytes and slots when sort records made before hold all that is left to read (every key of at
+    /// most 16 bytes, no ids): the rank step's peak is then lower by the table. The table must not be read again
+    /// except through those records, and is empty afterwards. Returns whether it was freed.
+    /// </summary>
+    internal bool ReleaseIfSortRecordsSuffice()
+    {
+        if (_hasLongKeys || _hasIds) return false;
+        FreeAll();
+        return true;
+    }
 
     /// <summary>The sorted types of <see cref="Sorted"/>; valid while the table is unchanged.</summary>
     internal sealed class SortedTypes : IDisposable

@@ -16,16 +16,19 @@ namespace RankFreq.Counting;
 /// the first position it was seen, packed as (work unit, token offset), so vocabulary growth can be read off exactly.
 /// </summary>
 /// <remarks>
-/// Counts live in the slots while counting; <see cref="Entries"/> copies them into the entries when read.
-/// <see cref="AddShort"/> sets a type's first position only when it inserts it: callers feed one table positions in
-/// increasing order (a worker meets its work units in corpus order), so a later occurrence never lowers it.
+/// Counts live in the slots while counting (32 bits, folded into the entry before they would wrap); <see
+/// cref="Entries"/> folds them into the entries when read. The slot also keeps the work unit of the type's first
+/// position: one feeder's positions only increase within a work unit, and a unit is read by one thread, so an
+/// occurrence can lower the first position only when it comes from an earlier unit — then, and only then, the entry is
+/// touched. That keeps first positions exact when several threads feed one table in any order (routed counting).
 /// </remarks>
 internal sealed unsafe partial class TokenTable : IDisposable
 {
     internal struct Slot
     {
         public ulong K0, K1; // the key's bytes 0-7 and 8-15, zero-padded (keys of at most 16 bytes); K0 = hash beyond
-        public long Count;
+        public uint Count;   // occurrences not yet folded into the entry's count (folded before it would wrap)
+        public int Unit;     // work unit of the type's first position (the entry holds the whole position)
         public int Len;
         public int Entry;    // entry index + 1; 0 = empty
     }
@@ -35,7 +38,7 @@ internal sealed unsafe partial class TokenTable : IDisposable
         public long Ref;    // page << 32 | offset
         public int Len;
         public int Id;      // vocabulary id, or -1
-        public long Count;  // valid when read through Entries
+        public long Count;  // folded count; whole when read through Entries (the slots' counts folded in)
         public long First;  // KeyPacking.PackPosition(unit, offset)
     }
 
@@ -98,6 +101,7 @@ internal sealed unsafe partial class TokenTable : IDisposable
         _count = 0;
         _dirty = false;
         _hasIds = false;
+        _hasLongKeys = false;
     }
 
     /// <summary>Frees the table's memory; the table must not be used afterwards.</summary>
@@ -125,6 +129,12 @@ internal sealed unsafe partial class TokenTable : IDisposable
     /// </summary>
     public long GrowthLimit { get; set; } = long.MaxValue;
 
+    /// <summary>
+    /// Shared by tables that grow at about the same time (the hash partitions of a routed count, balanced by the hash):
+    /// one of them rehashes at a time, so the old and doubled slot arrays of only one table are alive at once.
+    /// </summary>
+    public object? GrowthGate { get; set; }
+
     /// <summary>Set when the table held back a growth because of <see cref="GrowthLimit"/>; cleared by <see cref="Clear"/>.</summary>
     public bool OverLimit { get; private set; }
 
@@ -147,8 +157,13 @@ internal sealed unsafe partial class TokenTable : IDisposable
 
     private void SyncCounts()
     {
-        foreach (ref readonly var s in new ReadOnlySpan<Slot>(_slots, _slotCount))
-            if (s.Entry != 0) _entries[s.Entry - 1].Count = s.Count;
+        // a type seen once has its count in the entry already (the slot's is 0): no write into the entries for it
+        foreach (ref var s in new Span<Slot>(_slots, _slotCount))
+            if (s.Count != 0)
+            {
+                _entries[s.Entry - 1].Count += s.Count;
+                s.Count = 0;
+            }
         _dirty = false;
     }
 
@@ -184,6 +199,31 @@ internal sealed unsafe partial class TokenTable : IDisposable
         }
     }
 
+    /// <summary>
+    /// One occurrence of each routed token, in order (see <see cref="RoutedToken"/>): hashes were taken by the sender,
+    /// so each home slot is prefetched ahead as in <see cref="AddPacked"/>. Keys over 16 bytes are read from
+    /// <paramref name="longKeys"/>. Positions may come in any order across work units; first positions stay exact.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
+    public void AddRouted(ReadOnlySpan<RoutedToken> tokens, ReadOnlySpan<byte> longKeys)
+    {
+        int n = tokens.Length;
+        for (int i = 0; i < Math.Min(PrefetchDistance, n); i++) Prefetch(tokens[i].Hash);
+        for (int i = 0; i < n; i++)
+        {
+            if (i + PrefetchDistance < n) Prefetch(tokens[i + PrefetchDistance].Hash);
+            ref readonly var t = ref tokens[i];
+            if (t.Len <= 16) AddShortHashed(t.A, t.B, t.Len, t.Hash, t.First);
+            else Upsert(t.Hash, 0, t.Hash, longKeys.Slice((int)t.A, t.Len), 1, t.First, -1);
+        }
+    }
+
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private void Prefetch(ulong h)
+    {
+        if (Sse.IsSupported) Sse.Prefetch0(_slots + ((int)h & (_slotCount - 1)));
+    }
+
     /// <summary>How many tokens ahead of its probe a token's home slot is prefetched.</summary>
     private const int PrefetchDistance = 12;
 
@@ -206,7 +246,9 @@ internal sealed unsafe partial class TokenTable : IDisposable
             Slot* s = slots + i;
             if (s->K0 == a && s->K1 == b && s->Len == len)
             {
-                s->Count++;
+                // both rare: a count about to wrap, or an occurrence from an earlier work unit than the first one seen
+                if (s->Count == uint.MaxValue || (int)(first >> 40) < s->Unit) Bump(s, first);
+                else s->Count++;
                 _dirty = true;
                 return;
             }
@@ -214,6 +256,17 @@ internal sealed unsafe partial class TokenTable : IDisposable
             i = (i + 1) & mask;
         }
         InsertShort(ref slots[i], a, b, len, first);
+    }
+
+    /// <summary>One occurrence the hot path does not handle: folds the slot's count, lowers the first position.</summary>
+    [MethodImpl(MethodImplOptions.NoInlining)]
+    private void Bump(Slot* s, long first)
+    {
+        ref Entry e = ref _entries[s->Entry - 1];
+        e.Count += s->Count + 1L;
+        s->Count = 0;
+        if (first < e.First) e.First = first;
+        s->Unit = (int)(e.First >> 40);
     }
 
     [MethodImpl(MethodImplOptions.NoInlining)]
@@ -251,9 +304,10 @@ internal sealed unsafe partial class TokenTable : IDisposable
             }
             if (s.Len == key.Length && s.K0 == k0 && s.K1 == k1 && (key.Length <= 16 || Key(_entries[s.Entry - 1]).SequenceEqual(key)))
             {
-                s.Count += count;
                 ref Entry e = ref _entries[s.Entry - 1];
+                e.Count += count;
                 if (first < e.First) e.First = first;
+                s.Unit = (int)(e.First >> 40);
                 _dirty = true;
                 return;
             }
@@ -270,18 +324,21 @@ internal sealed unsafe partial class TokenTable : IDisposable
         }
         _entries[_count] = new Entry { Ref = Store(key), Len = key.Length, Id = id, Count = count, First = first };
         if (id != -1) _hasIds = true;
+        if (key.Length > 16) _hasLongKeys = true;
         _count++;
         s.K0 = k0;
         s.K1 = k1;
         s.Len = key.Length;
-        s.Count = count;
+        s.Count = 0; // the count is in the entry
+        s.Unit = (int)(first >> 40);
         s.Entry = _count;
         _dirty = true;
         if ((long)_count * 2 > _slotCount)
         {
             // spill before growth: under a limit the table fills to 3/4 and waits for its owner to spill it
             if (GrowthPeakBytes > GrowthLimit && (long)_count * 4 < 3L * _slotCount) OverLimit = true;
-            else Rehash();
+            else if (GrowthGate is null) Rehash();
+            else lock (GrowthGate) Rehash();
         }
     }
 
@@ -359,14 +416,18 @@ internal sealed unsafe partial class TokenTable : IDisposable
     /// </summary>
     private readonly struct SortKeyComparer(TokenTable t, bool byCount)
     {
+        [MethodImpl(MethodImplOptions.AggressiveInlining)]
         public int Compare(in SortKey x, in SortKey y)
         {
             if (byCount && x.Count != y.Count) return x.Count > y.Count ? -1 : 1;
             if (x.A != y.A) return x.A < y.A ? -1 : 1;
             if (x.B != y.B) return x.B < y.B ? -1 : 1;
             if (x.Len <= 16 && y.Len <= 16) return x.Len.CompareTo(y.Len);
-            return t.Key(t._entries[x.Index]).SequenceCompareTo(t.Key(t._entries[y.Index]));
+            return CompareArena(x.Index, y.Index);
         }
+
+        [MethodImpl(MethodImplOptions.NoInlining)]
+        private int CompareArena(int x, int y) => t.Key(t._entries[x]).SequenceCompareTo(t.Key(t._entries[y]));
 
         /// <summary>Sorts; a large array is split by one partition step and its two sides sorted on two threads.</summary>
         public void SortParallel(SortKey* a, int n)

@@ -39,7 +39,7 @@ public class HighCardinalityTests(HighCardinalityTests.InputFixture input) : ICl
     /// base 26, so a few words are very common and most are rare) and 40% random strings of 5 to 30 letters (nearly
     /// all new types; those over 16 bytes take the table's long-key path).
     /// </summary>
-    internal static string Text(int tokens, int seed)
+    internal static string Text(int tokens, int seed, int maxRandomLength = 30)
     {
         var rng = new Random(seed);
         var sb = new StringBuilder(tokens * 10);
@@ -54,7 +54,7 @@ public class HighCardinalityTests(HighCardinalityTests.InputFixture input) : ICl
             }
             else
             {
-                int len = 5 + rng.Next(26);
+                int len = 5 + rng.Next(maxRandomLength - 4);
                 for (int j = 0; j < len; j++) sb.Append((char)('a' + rng.Next(26)));
             }
             sb.Append(i % 15 == 14 ? '\n' : ' ');
@@ -111,6 +111,63 @@ public class HighCardinalityTests(HighCardinalityTests.InputFixture input) : ICl
         if (budget == 0) Assert.Equal(0, r.Summary.SpilledRuns);
         r.Dispose();
         Assert.Empty(Directory.GetFileSystemEntries(d.Path)); // every run removed
+    }
+
+    /// <summary>Types seen by each checkpoint in corpus order, from the text itself.</summary>
+    internal static long[] ReferenceGrowth(string text, long[] checkpoints)
+    {
+        var seen = new HashSet<string>(StringComparer.Ordinal);
+        var types = new long[checkpoints.Length];
+        long n = 0;
+        int c = 0;
+        foreach (var t in text.Split([' ', '\n'], StringSplitOptions.RemoveEmptyEntries))
+        {
+            seen.Add(t);
+            n++;
+            while (c < checkpoints.Length && checkpoints[c] == n) types[c++] = seen.Count;
+        }
+        return types;
+    }
+
+    [Theory]
+    [InlineData(2, 0L, 1000, "words")]         // routed by hash after 1,000 types, in memory
+    [InlineData(3, 0L, 1, "words")]            // three partitions, routed from the first type on
+    [InlineData(2, 0L, 1, "whitespace")]       // every token through AddToken (no packed batches)
+    [InlineData(2, 4L << 20, 1000, "words")]   // partitions spilled under a budget
+    [InlineData(2, 256L << 10, 1, "words")]    // hundreds of runs
+    public void RoutedCountsEqualADictionaryCountWithExactGrowth(int threads, long budget, int routeAbove, string tokenizer)
+    {
+        var (path, expected) = (input.Path, input.Rows);
+        using var d = new TempDir();
+        using var r = CountJob.Count([path], new CountSettings(Tokenizer: tokenizer, Threads: threads, MemoryBytes: budget,
+            TempDirectory: d.Path, SplitAboveBytes: 64 << 10, RouteAboveTypes: routeAbove));
+        var got = CountingTests.Rows(r.Rows);
+        Assert.Equal(expected.Count, r.Summary.Types);
+        Assert.Equal(expected.Sum(x => x.Count), r.Summary.Tokens);
+        Assert.Equal(RowsHash(expected.Select(x => ((string?)x.Token, x.Count))), RowsHash(got));
+        // first positions stay exact although several threads feed each partition's table in any order
+        Assert.Equal(ReferenceGrowth(File.ReadAllText(path), r.Growth.Tokens), r.Growth.Types);
+        if (budget == 256L << 10) Assert.True(r.Summary.SpilledRuns >= 100, $"only {r.Summary.SpilledRuns} runs");
+        if (budget == 0) Assert.Equal(0, r.Summary.SpilledRuns);
+        r.Dispose();
+        Assert.Empty(Directory.GetFileSystemEntries(d.Path));
+    }
+
+    [Theory]
+    [InlineData(1)]
+    [InlineData(2)]
+    public void ShortKeysOnlyRankFromSortRecordsAlone(int threads)
+    {
+        // every key ≤ 16 bytes: the tables are freed before the strings are made (only the sort records are read)
+        using var d = new TempDir();
+        string text = Text(300_000, 5, maxRandomLength: 16);
+        File.WriteAllText(d["short.txt"], text);
+        var expected = ReferenceRows(text);
+        using var r = CountJob.Count([d["short.txt"]], new CountSettings(Threads: threads, SplitAboveBytes: 64 << 10,
+            RouteAboveTypes: 1000));
+        Assert.True(expected.Count > 100_000, $"the input should be high-cardinality ({expected.Count} types)");
+        Assert.Equal(RowsHash(expected.Select(x => ((string?)x.Token, x.Count))), RowsHash(CountingTests.Rows(r.Rows)));
+        Assert.Equal(ReferenceGrowth(text, r.Growth.Tokens), r.Growth.Types);
     }
 
     [Fact]
