@@ -5,6 +5,16 @@ namespace RankFreq.Counting;
 
 internal sealed unsafe partial class TokenTable
 {
+    /// <summary>The sort record of entry <paramref name="i"/>: count, first 16 key bytes, first position.</summary>
+    private SortKey RecordOf(in Entry e, int i)
+    {
+        var k = Key(e);
+        KeyPacking.Pack16(k[..Math.Min(16, k.Length)], out ulong a, out ulong b);
+        // little-endian packed words byte-reversed: the first byte becomes the most significant
+        return new SortKey(e.Count, BinaryPrimitives.ReverseEndianness(a), BinaryPrimitives.ReverseEndianness(b),
+            e.First, k.Length, i);
+    }
+
     /// <summary>
     /// Every type of the table in rank order (<paramref name="byCount"/>: count descending, ties by key bytes) or in
     /// key order (a spill run's order), as sort records in a native block that the caller disposes.
@@ -23,12 +33,7 @@ internal sealed unsafe partial class TokenTable
         {
             for (int i = 0; i < n; i++)
             {
-                ref readonly var e = ref entries[i];
-                var k = Key(e);
-                KeyPacking.Pack16(k[..Math.Min(16, k.Length)], out ulong a, out ulong b);
-                // little-endian packed words byte-reversed: the first byte becomes the most significant
-                keys[i] = new SortKey(e.Count, BinaryPrimitives.ReverseEndianness(a),
-                    BinaryPrimitives.ReverseEndianness(b), e.First, k.Length, i);
+                keys[i] = RecordOf(entries[i], i);
             }
             new SortKeyComparer(this, byCount).SortParallel(keys, n);
             return new SortedTypes(this, keys, n);
@@ -63,11 +68,8 @@ internal sealed unsafe partial class TokenTable
             for (int i = 0; i < n; i++)
             {
                 ref readonly var e = ref entries[i];
-                var k = Key(e);
-                KeyPacking.Pack16(k[..Math.Min(16, k.Length)], out ulong a, out ulong b);
                 int bucket = e.Count < Buckets ? (int)e.Count : 0;
-                keys[next[bucket]++] = new SortKey(e.Count, BinaryPrimitives.ReverseEndianness(a),
-                    BinaryPrimitives.ReverseEndianness(b), e.First, k.Length, i);
+                keys[next[bucket]++] = RecordOf(e, i);
             }
             var byRank = new SortKeyComparer(this, byCount: true);
             var byKey = new SortKeyComparer(this, byCount: false);
