@@ -444,19 +444,121 @@ public sealed partial class TailSearch
     /// The full fit: xmin minimising the KS distance over candidates (observed values with at least <paramref name="minTail"/>
     /// tail points and three distinct values), or the given <paramref name="fixedXmin"/>.
     /// </summary>
-    public PowerLawFit Search(int minTail, long fixedXmin = 0) => SearchCore(minTail, fixedXmin, full: false);
+    public PowerLawFit Search(int minTail, long fixedXmin = 0) => SearchCore(minTail, fixedXmin, full: false)!;
 
     /// <summary><see cref="Search(int, long)"/> visiting the candidate at <paramref name="firstXmin"/> (the first value at or above
     /// it) before all others: a bootstrap replicate's KS-best xmin is usually near the data's, so the best distance is
     /// small from the start and the other candidates are screened instead of fitted. The result is the same candidate
     /// (the choice is the smallest distance, ties to the lower index, whatever the order), with α the same Newton root
     /// to its tolerance (the warm starts follow the order).</summary>
-    internal PowerLawFit Search(int minTail, long fixedXmin, long firstXmin) => SearchCore(minTail, fixedXmin, full: false, firstXmin);
+    internal PowerLawFit Search(int minTail, long fixedXmin, long firstXmin) => SearchCore(minTail, fixedXmin, full: false, firstXmin)!;
 
     /// <summary>Reference implementation of <see cref="Search(int, long)"/>: every candidate's KS distance point by point.</summary>
-    internal PowerLawFit SearchFullScan(int minTail, long fixedXmin = 0) => SearchCore(minTail, fixedXmin, full: true);
+    internal PowerLawFit SearchFullScan(int minTail, long fixedXmin = 0) => SearchCore(minTail, fixedXmin, full: true)!;
 
-    private PowerLawFit SearchCore(int minTail, long fixedXmin, bool full, long firstXmin = 0)
+    /// <summary>What a goodness-of-fit replicate needs of <see cref="Search(int, long, long)"/> (free xmin): whether the
+    /// search would give status ok, and whether its KS distance then reaches <paramref name="level"/> — found without
+    /// fitting the replicate's best candidate whenever it can be (see the remarks).</summary>
+    /// <remarks>
+    /// The p-value counts replicates whose search is ok with distance ≥ the data's. The search's distance is the
+    /// smallest over the candidates whose fit is ok or at the cap, and its status that of the candidate reaching it.
+    /// (1) When no candidate can have its α at the cap (<see cref="NoneAtCap"/>), the candidate reaching the smallest
+    /// distance is ok (the search skips candidates whose Newton run did not converge), so the status is ok as soon as
+    /// one candidate's fit is ok (the first candidate is fitted to show it when nothing else was), and only "is the
+    /// smallest distance below the level" is asked.
+    /// (2) That is the search itself started with the level as its best distance and no best candidate: every candidate
+    /// with distance ≥ the level is screened out or abandoned at the level exactly as a candidate at or above a best
+    /// distance is (the screen and the KS walk only ever drop what cannot go below it), and the first candidate whose
+    /// walk ends below the level answers "below" at once. So the answer equals that of comparing the full search's
+    /// distance with the level, except where the two differ by the rounding of a warm-started Newton root (~1e-15
+    /// relative), as between two visiting orders of the search itself. Without (1) the full search runs.
+    /// </remarks>
+    internal ReplicateVerdict ReachesLevel(int minTail, long firstXmin, double level)
+    {
+        if (!(level >= 0) || !NoneAtCap(minTail))
+        {
+            var f = Search(minTail, 0, firstXmin);
+            return f.Status != FitStatus.Ok ? ReplicateVerdict.Invalid
+                : f.KsDistance >= level ? ReplicateVerdict.AtOrAbove : ReplicateVerdict.Below;
+        }
+        if (SearchCore(minTail, 0, full: false, firstXmin, level) is not null) return ReplicateVerdict.Below;
+        // nothing below the level: the full search's status is ok when any candidate's fit is (step (1)); one fit shows it
+        if (FitAt(0).Status == FitStatus.Ok) return ReplicateVerdict.AtOrAbove;
+        var g = Search(minTail, 0, firstXmin);
+        return g.Status != FitStatus.Ok ? ReplicateVerdict.Invalid
+            : g.KsDistance >= level ? ReplicateVerdict.AtOrAbove : ReplicateVerdict.Below;
+    }
+
+    /// <summary>
+    /// True when there is at least one xmin candidate and none can have its likelihood still rising at α = 30 (a fit at
+    /// the cap): for each, the tail's mean of ln x − ln v_i exceeds an upper bound on E_30[ln X − ln v_i] over x ≥ v_i.
+    /// </summary>
+    /// <remarks>
+    /// A mean above E_30[ln X] makes the score at the cap negative, so the fit's root lies below 30. With v = v_i,
+    /// ln(X/v) = Σ_{k≥1} 1{X ≥ v+k} ln((v+k)/(v+k−1)), so E[ln(X/v)] = Σ_{k≥1} P(X ≥ v+k) ln(1 + 1/(v+k−1)), where
+    /// P(X ≥ v+k) = ζ(30, v+k)/ζ(30, v). Bounding the sums by integrals of the decreasing x^−30: from v = 64 on,
+    /// ζ(30, v+k) ≤ (v+k−1)^−29/29 and ζ(30, v) ≥ v^−29/29 give P ≤ (1 + (k−1)/v)^−29, and with ln(1 + t) ≤ t and
+    /// X/v − 1 = Σ_k 1{X ≥ v+k}/v the bound E ≤ (1 + Σ_{j≥1} (1 + j/v)^−29)/v ≤ 1/v + 1/28. Below 64 (where that is
+    /// loose) <see cref="CapBoundSmall"/> sums min(1, (v/(v+k))^30 (1 + (v+k)/29)) ln(1 + 1/(v+k−1)) over k, from
+    /// ζ(30, q) ≤ q^−30 + q^−29/29 and ζ(30, v) ≥ v^−30. Power-law-like tails have a mean excess ≈ 1/(α − 1) ≫ 1/28.
+    /// </remarks>
+    private bool NoneAtCap(int minTail)
+    {
+        int candidates = 0;
+        while (candidates < _k - 2 && _nSuffix[candidates] >= minTail) candidates++;
+        if (candidates == 0) return false;
+        for (int i = 0; i < candidates; i++)
+        {
+            double excess = _lnSuffix[i] / _nSuffix[i] - _lnV[i];
+            if (!(excess > CapExcessBound(_v[i]) + 1e-9)) return false;
+        }
+        return true;
+    }
+
+    /// <summary>Upper bound on E_30[ln(X/v)] for the power law with α = 30 on x ≥ v (see <see cref="NoneAtCap"/>).</summary>
+    internal static double CapExcessBound(long v) => v < CapBoundSmall.Length ? CapBoundSmall[v] : 1.0 / v + 1.0 / 28;
+
+    /// <summary>Upper bounds on E_30[ln(X/v)] over x ≥ v for v &lt; 64 (see <see cref="NoneAtCap"/>): the sum, with a
+    /// relative margin of 1e-6 for rounding and for the terms left out (each below 1e-30, falling like k^−29), or the
+    /// large-v bound where that is smaller.</summary>
+    private static readonly double[] CapBoundSmall = BuildCapBoundSmall();
+
+    private static double[] BuildCapBoundSmall()
+    {
+        var t = new double[64];
+        t[0] = double.PositiveInfinity;
+        for (int v = 1; v < t.Length; v++)
+        {
+            double sum = 0;
+            for (int k = 1; ; k++)
+            {
+                double q = v + k;
+                double p = Math.Min(1, Math.Pow(v / q, 30) * (1 + q / 29));
+                double term = p * Math.Log(1 + 1.0 / (q - 1));
+                sum += term;
+                if (term < 1e-30 && k > 64) break;
+            }
+            t[v] = Math.Min(sum * (1 + 1e-6) + 1e-300, 1.0 / v + 1.0 / 28); // both are bounds; the sum is tight for small v
+        }
+        return t;
+    }
+
+    /// <summary>Answer of <see cref="ReachesLevel"/>.</summary>
+    internal enum ReplicateVerdict
+    {
+        /// <summary>The search's status is not ok (the replicate is left out of the p-value).</summary>
+        Invalid,
+        /// <summary>Status ok with a KS distance below the level.</summary>
+        Below,
+        /// <summary>Status ok with a KS distance at or above the level.</summary>
+        AtOrAbove,
+    }
+
+    /// <summary>The search; with a finite <paramref name="level"/> (free xmin, pruned only) the level acts as the best
+    /// distance before any candidate is fitted, the first candidate below it is returned at once, and null means none
+    /// is below it (<see cref="ReachesLevel"/>).</summary>
+    private PowerLawFit? SearchCore(int minTail, long fixedXmin, bool full, long firstXmin = 0,
+        double level = double.PositiveInfinity)
     {
         long total = _nSuffix[0];
         if (total == 1)
@@ -475,7 +577,8 @@ public sealed partial class TailSearch
             return f.Status == FitStatus.AtBound ? NoMaximum(f, fixedXmin) : f;
         }
         PowerLawFit? best = null;
-        double bestD = double.PositiveInfinity;
+        double bestD = level;
+        bool decide = double.IsFinite(level);
         int bestI = -1;
         bool anyInterior = false;
         int candidates = 0;
@@ -522,11 +625,16 @@ public sealed partial class TailSearch
                     offset = f.Alpha - f.AlphaApprox;
                 }
                 double d = full ? KsFullScan(i, f.Alpha, giveUp) : KsGiven(i, f.Alpha, giveUp, 0, lnZeta);
-                if (d < bestD || d == bestD && i < bestI) { bestD = d; bestI = i; best = f with { KsDistance = d }; }
+                if (d < bestD || d == bestD && i < bestI)
+                {
+                    bestD = d; bestI = i; best = f with { KsDistance = d };
+                    if (decide) return best;
+                }
             }
         }
+        if (decide) return null;
         // a screened candidate above its start might have had an interior fit: decide anyInterior exactly
-        if (best?.Status == FitStatus.AtBound && !anyInterior && screened) return SearchCore(minTail, fixedXmin, full: true);
+        if (best?.Status == FitStatus.AtBound && !anyInterior && screened) return SearchCore(minTail, fixedXmin, full: true)!;
         if (best is null)
         {
             if (total < minTail)
