@@ -31,12 +31,12 @@ internal static class Synthetic
         if (cells is not null)
         {
             if (cells.Alpha != alpha || cells.Xmin != xmin) throw new ArgumentException("cells made for another law", nameof(cells));
-            var pc = cells.P;
+            double[] pc = cells.P, l1 = cells.Log1mP, odds = cells.Odds;
             for (; steps < pc.Length && remaining > 0; steps++, x++)
             {
                 double p = pc[steps];
                 if (remaining < 32 || remaining * p < 1) break;
-                long k = BinomialSampler.Draw(rng, remaining, p);
+                long k = BinomialSampler.Draw(rng, remaining, p, l1[steps], odds[steps]);
                 buf.Add(x, k);
                 remaining -= k;
             }
@@ -205,5 +205,10 @@ internal sealed class PowerLawCells
         }
         P = p.ToArray();
         ZAfter = z;
+        Log1mP = P.Select(q => LogMath.Log1p(-q)).ToArray();
+        Odds = P.Select(q => q / (1 - q)).ToArray();
     }
+
+    /// <summary>ln(1 − p) and p/(1 − p) of each cell, as the binomial sampler's inversion computes them (the same values).</summary>
+    public readonly double[] Log1mP, Odds;
 }
