@@ -586,7 +586,9 @@ public sealed partial class TailSearch
         // Full scan: candidates in order, each abandoned once its distance reaches the best so far. Pruned: a sample of
         // every stride-th candidate first, so that the best distance is small early and the rest are abandoned sooner;
         // ties go to the lower index as in the full scan (a lower-index candidate is abandoned only above the best).
-        int stride = full ? 1 : Math.Max(1, (int)Math.Sqrt(candidates));
+        // (with a fixed level there is no best distance to lower early: one pass in order, which keeps the screen's
+        // remembered witness points useful from one candidate to the next)
+        int stride = full || decide ? 1 : Math.Max(1, (int)Math.Sqrt(candidates));
         // pass 0 visits only the candidate asked for first (if any), pass 1 the sample, pass 2 the rest
         int first0 = full || firstXmin <= 0 ? -1 : IndexOf(firstXmin);
         if (first0 >= candidates) first0 = -1;
@@ -598,10 +600,12 @@ public sealed partial class TailSearch
         {
             double warm = best?.Alpha ?? 2;
             double offset = double.NaN; // α − closed-form approximation at the last interior fit: predicts the next start
-            for (int i = pass == 0 ? first0 : 0; i < (pass == 0 ? first0 + 1 : candidates); i++)
+            // pass 1 steps through the sample, pass 2 through the rest (rem = i mod stride, kept without a division)
+            int step = pass == 1 && stride > 1 ? stride : 1;
+            for (int i = pass == 0 ? first0 : 0, rem = 0; i < (pass == 0 ? first0 + 1 : candidates);
+                i += step, rem = step > 1 || rem + 1 == stride ? 0 : rem + 1)
             {
-                bool sampled = i % stride == 0;
-                if (pass > 0 && (i == first0 || stride > 1 && sampled != (pass == 1))) continue;
+                if (pass > 0 && (i == first0 || pass == 2 && rem == 0)) continue;
                 double giveUp = i < bestI ? Math.BitIncrement(bestD) : bestD;
                 PowerLawFit f;
                 double lnZeta = double.NaN;
