@@ -49,6 +49,7 @@ public sealed partial class TailSearch
     private readonly long[] _nSuffix;     // Σ_{j≥i} m_j
     private readonly double[] _lnSuffix;  // Σ_{j≥i} m_j ln v_j
     private readonly double[] _lnV;       // ln v_j
+    private readonly int _firstAtCapRisk = int.MaxValue; // lowest index whose tail might fit at the α cap (NoneAtCap)
 
     /// <summary>Prepares the suffix sums for a spectrum given as parallel arrays (values strictly increasing, first <paramref name="count"/> used).</summary>
     public TailSearch(long[] values, long[] mult, int count) : this(values, mult, count, null) { }
@@ -79,6 +80,9 @@ public sealed partial class TailSearch
             _lnV[i] = (ulong)x < (ulong)lnSmall.Length ? lnSmall[x] : Math.Log(x);
             _nSuffix[i] = _nSuffix[i + 1] + mult[i];
             _lnSuffix[i] = _lnSuffix[i + 1] + mult[i] * _lnV[i];
+            // the cap check of NoneAtCap without a division: mean excess of ln x over ln v_i against its bound
+            double n = _nSuffix[i];
+            if (!(_lnSuffix[i] - n * _lnV[i] > n * CapExcessLimit(x))) _firstAtCapRisk = i;
         }
     }
 
@@ -498,7 +502,8 @@ public sealed partial class TailSearch
     /// ln(X/v) = Σ_{k≥1} 1{X ≥ v+k} ln((v+k)/(v+k−1)), so E[ln(X/v)] = Σ_{k≥1} P(X ≥ v+k) ln(1 + 1/(v+k−1)), where
     /// P(X ≥ v+k) = ζ(30, v+k)/ζ(30, v). Bounding the sums by integrals of the decreasing x^−30: from v = 64 on,
     /// ζ(30, v+k) ≤ (v+k−1)^−29/29 and ζ(30, v) ≥ v^−29/29 give P ≤ (1 + (k−1)/v)^−29, and with ln(1 + t) ≤ t and
-    /// X/v − 1 = Σ_k 1{X ≥ v+k}/v the bound E ≤ (1 + Σ_{j≥1} (1 + j/v)^−29)/v ≤ 1/v + 1/28. Below 64 (where that is
+    /// X/v − 1 = Σ_k 1{X ≥ v+k}/v the bound E ≤ (1 + Σ_{j≥1} (1 + j/v)^−29)/v ≤ 1/v + 1/28 ≤ 1/64 + 1/28 (the constant
+    /// used, so the check needs no division; it is made for every tail in the constructor). Below 64 (where that is
     /// loose) <see cref="CapBoundSmall"/> sums min(1, (v/(v+k))^30 (1 + (v+k)/29)) ln(1 + 1/(v+k−1)) over k, from
     /// ζ(30, q) ≤ q^−30 + q^−29/29 and ζ(30, v) ≥ v^−30. Power-law-like tails have a mean excess ≈ 1/(α − 1) ≫ 1/28.
     /// </remarks>
@@ -506,22 +511,26 @@ public sealed partial class TailSearch
     {
         int candidates = 0;
         while (candidates < _k - 2 && _nSuffix[candidates] >= minTail) candidates++;
-        if (candidates == 0) return false;
-        for (int i = 0; i < candidates; i++)
-        {
-            double excess = _lnSuffix[i] / _nSuffix[i] - _lnV[i];
-            if (!(excess > CapExcessBound(_v[i]) + 1e-9)) return false;
-        }
-        return true;
+        // each tail checked as the suffix sums are made (the constructor), lowest failing index kept
+        return candidates > 0 && _firstAtCapRisk >= candidates;
     }
 
-    /// <summary>Upper bound on E_30[ln(X/v)] for the power law with α = 30 on x ≥ v (see <see cref="NoneAtCap"/>).</summary>
-    internal static double CapExcessBound(long v) => v < CapBoundSmall.Length ? CapBoundSmall[v] : 1.0 / v + 1.0 / 28;
+    /// <summary>Upper bound on E_30[ln(X/v)] for the power law with α = 30 on x ≥ v (see <see cref="NoneAtCap"/>); from
+    /// v = 64 on the constant 1/64 + 1/28 (≥ 1/v + 1/28), so that no division is needed.</summary>
+    internal static double CapExcessBound(long v) => (ulong)v < (ulong)CapBoundSmall.Length ? CapBoundSmall[v] : 1.0 / 64 + 1.0 / 28;
+
+    /// <summary><see cref="CapExcessBound"/> plus a margin of 1e-9 for the rounding of the suffix sums.</summary>
+    private static double CapExcessLimit(long v) =>
+        (ulong)v < (ulong)CapLimitSmall.Length ? CapLimitSmall[v] : 1.0 / 64 + 1.0 / 28 + 1e-9;
+
 
     /// <summary>Upper bounds on E_30[ln(X/v)] over x ≥ v for v &lt; 64 (see <see cref="NoneAtCap"/>): the sum, with a
     /// relative margin of 1e-6 for rounding and for the terms left out (each below 1e-30, falling like k^−29), or the
     /// large-v bound where that is smaller.</summary>
     private static readonly double[] CapBoundSmall = BuildCapBoundSmall();
+
+    // after CapBoundSmall: static fields are initialised in the order written
+    private static readonly double[] CapLimitSmall = CapBoundSmall.Select(b => b + 1e-9).ToArray();
 
     private static double[] BuildCapBoundSmall()
     {
