@@ -3,7 +3,8 @@ using RankFreq.Fitting;
 
 /// <summary>
 /// One part of the bootstrap replicates alone, for a profiler (perf) to look at: `gof-draw`, `gof-search`, `gof-level`
-/// (the goodness-of-fit replicate's question alone: is its distance at or above the data's), `ci-draw` or `ci-search` on a spectrum file, seed 1. Search parts draw their spectra first (outside the timed loop); every
+/// (the goodness-of-fit replicate's question alone: is its distance at or above the data's), `ci-draw` or
+/// `ci-search` on a spectrum file, seed 1. Search parts draw their spectra first (outside the timed loop); every
 /// part runs twice, or ROUNDS times (the first round warms the JIT up), and prints CPU ms per replicate.
 /// </summary>
 internal static class ReplicateLoop
@@ -42,7 +43,10 @@ internal static class ReplicateLoop
             double check = 0;
             if (spectra.Count > 0 && part == "gof-level")
                 foreach (var (sv, sm) in spectra)
-                    check += (int)new TailSearch(sv, sm, sv.Length, buf.Search).ReachesLevel(50, pl.Xmin, pl.KsDistance);
+                {
+                    var s = new TailSearch(sv, sm, sv.Length, buf.Search);
+                    check += (int)s.ReachesLevel(50, pl.Xmin, pl.KsDistance);
+                }
             else if (spectra.Count > 0)
                 foreach (var (sv, sm) in spectra) check += new TailSearch(sv, sm, sv.Length, buf.Search).Search(50, 0, pl.Xmin).Alpha;
             else

@@ -50,8 +50,8 @@ public static class BinomialSampler
         return n * p < 10 ? Inversion(rng, n, p) : Btrs(rng, n, p);
     }
 
-    /// <summary><see cref="Draw(Xoshiro, long, double)"/> for a probability given with its ln(1 − p) = LogMath.Log1p(−p) and odds p/(1 − p),
-    /// as a table of cells holds them: the same variate to the bit, one logarithm and one division fewer.</summary>
+    /// <summary><see cref="Draw(Xoshiro, long, double)"/> for a probability given with its ln(1 − p) =
+    /// LogMath.Log1p(−p) and odds p/(1 − p), as a table of cells holds them: the same variate to the bit, one logarithm and one division fewer.</summary>
     internal static long Draw(Xoshiro rng, long n, double p, double log1mP, double odds)
     {
         if (n <= 0 || !(p > 0) || p > 0.5) return Draw(rng, n, p);

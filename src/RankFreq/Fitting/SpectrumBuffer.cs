@@ -68,7 +68,8 @@ internal sealed class SpectrumBuffer
     private void SortFar(Span<long> a, long min, long max)
     {
         ulong range = (ulong)(max - min);
-        int passes = range == 0 ? 1 : (64 - System.Numerics.BitOperations.LeadingZeroCount(range) + RadixBits - 1) / RadixBits;
+        int bits = 64 - System.Numerics.BitOperations.LeadingZeroCount(range);
+        int passes = range == 0 ? 1 : (bits + RadixBits - 1) / RadixBits;
         if (a.Length < 128 || passes > 4 || a.Length < passes * 96) { a.Sort(); return; }
         if (_radix.Length < a.Length) _radix = new long[Math.Max(a.Length, _radix.Length * 2)];
         Span<long> from = a, to = _radix.AsSpan(0, a.Length);

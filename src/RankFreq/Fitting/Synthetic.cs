@@ -214,6 +214,7 @@ internal sealed class PowerLawCells
         Odds = P.Select(q => q / (1 - q)).ToArray();
     }
 
-    /// <summary>ln(1 − p) and p/(1 − p) of each cell, as the binomial sampler's inversion computes them (the same values).</summary>
+    /// <summary>ln(1 − p) and p/(1 − p) of each cell, as the binomial sampler's inversion computes them (the same
+    /// values).</summary>
     public readonly double[] Log1mP, Odds;
 }

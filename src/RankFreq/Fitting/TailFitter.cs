@@ -8,7 +8,8 @@ namespace RankFreq.Fitting;
 /// power-law MLE with xmin chosen by the KS criterion, semi-parametric bootstrap goodness of fit (§4.1) with the
 /// full xmin search on every synthetic set, nonparametric bootstrap uncertainty, and likelihood-ratio comparisons
 /// with alternative families (§5). Replicate r draws from a generator seeded by (seed, r), so results are the same
-/// for any thread count.
+/// for any thread count. A goodness-of-fit replicate with a free xmin only asks whether its search's distance reaches
+/// the data's (<see cref="TailSearch.ReachesLevel"/>), which gives the same p-value as comparing the searched distance.
 /// </summary>
 public static class TailFitter
 {

@@ -92,7 +92,8 @@ public sealed partial class TailSearch
         // 1/(α₀ − 1) is shared with the quick sums; the ratios and the bound points take one reciprocal of the sum
         // (rounding differences of a few 1e-16 against dividing each, far inside the margin)
         double invA = 1 / (a0 - 1);
-        z0 = _v[i] >= QuickFrom ? HurwitzZeta.ScaledQuick(a0, _v[i], _lnV[i], invA) : HurwitzZeta.ScaledAt(a0, _v[i], _lnV[i], true);
+        z0 = _v[i] >= QuickFrom ? HurwitzZeta.ScaledQuick(a0, _v[i], _lnV[i], invA)
+            : HurwitzZeta.ScaledAt(a0, _v[i], _lnV[i], true);
         double invZ = 1 / z0.Value;
         double r1 = z0.D1 * invZ, r2 = z0.D2 * invZ;   // ζ'/ζ and ζ''/ζ
         double score = -_lnSuffix[i] / _nSuffix[i] - r1;
@@ -125,7 +126,8 @@ public sealed partial class TailSearch
     }
 
     /// <summary>One-sided deviations of the tail at index i from the law at α₀, as lower bounds (see <see cref="Screen"/>).</summary>
-    private readonly struct ScreenPoint(TailSearch s, int i, double a0, double invScaledZ, double invA, bool both, bool up)
+    private readonly struct ScreenPoint(TailSearch s, int i, double a0, double invScaledZ, double invA, bool both,
+        bool up)
     {
         /// <summary>Both sides count (the start is within a tiny step of α̂).</summary>
         public bool Both => both;

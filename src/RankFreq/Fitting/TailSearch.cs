@@ -33,6 +33,9 @@ namespace RankFreq.Fitting;
 /// of the probe is kept, so the walk computes the same distance to the bit. Bootstrap replicates visit the data's
 /// xmin first (<see cref="Search(int, long, long)"/>): the order does not change the choice (smallest distance, ties
 /// to the lower index) and only moves the warm starts, so α agrees to the Newton tolerance.</para>
+/// <para>Goodness-of-fit replicates need only whether the search's distance reaches the data's:
+/// <see cref="ReachesLevel"/> runs the search with that level as its best distance from the start, which spares the
+/// fits and complete KS walks of every new best candidate (proof sketch in its remarks).</para>
 /// </remarks>
 public sealed partial class TailSearch
 {
@@ -486,7 +489,8 @@ public sealed partial class TailSearch
                 : f.KsDistance >= level ? ReplicateVerdict.AtOrAbove : ReplicateVerdict.Below;
         }
         if (SearchCore(minTail, 0, full: false, firstXmin, level) is not null) return ReplicateVerdict.Below;
-        // nothing below the level: the full search's status is ok when any candidate's fit is (step (1)); one fit shows it
+        // nothing below the level: the full search's status is ok when any candidate's fit is (step (1)); one fit
+        // shows it
         if (FitAt(0).Status == FitStatus.Ok) return ReplicateVerdict.AtOrAbove;
         var g = Search(minTail, 0, firstXmin);
         return g.Status != FitStatus.Ok ? ReplicateVerdict.Invalid
@@ -517,7 +521,8 @@ public sealed partial class TailSearch
 
     /// <summary>Upper bound on E_30[ln(X/v)] for the power law with α = 30 on x ≥ v (see <see cref="NoneAtCap"/>); from
     /// v = 64 on the constant 1/64 + 1/28 (≥ 1/v + 1/28), so that no division is needed.</summary>
-    internal static double CapExcessBound(long v) => (ulong)v < (ulong)CapBoundSmall.Length ? CapBoundSmall[v] : 1.0 / 64 + 1.0 / 28;
+    internal static double CapExcessBound(long v) =>
+        (ulong)v < (ulong)CapBoundSmall.Length ? CapBoundSmall[v] : 1.0 / 64 + 1.0 / 28;
 
     /// <summary><see cref="CapExcessBound"/> plus a margin of 1e-9 for the rounding of the suffix sums.</summary>
     private static double CapExcessLimit(long v) =>
@@ -547,7 +552,8 @@ public sealed partial class TailSearch
                 sum += term;
                 if (term < 1e-30 && k > 64) break;
             }
-            t[v] = Math.Min(sum * (1 + 1e-6) + 1e-300, 1.0 / v + 1.0 / 28); // both are bounds; the sum is tight for small v
+            // both are bounds; the sum is the tighter one for small v
+            t[v] = Math.Min(sum * (1 + 1e-6) + 1e-300, 1.0 / v + 1.0 / 28);
         }
         return t;
     }

@@ -201,17 +201,22 @@ public class ReplicateLevelTests
                 double d = full.Status == FitStatus.Ok ? full.KsDistance : 0.05;
                 double level = d * factor;
                 var verdict = new TailSearch(buf.Values, buf.Mult, buf.Count).ReachesLevel(20, first, level);
-                var expected = full.Status != FitStatus.Ok ? TailSearch.ReplicateVerdict.Invalid
-                    : full.KsDistance >= level ? TailSearch.ReplicateVerdict.AtOrAbove : TailSearch.ReplicateVerdict.Below;
-                Assert.True(expected == verdict, $"seed {seed}, level {level:R}: {verdict} where the full scan says {expected} "
+                var expected = Expected(full, level);
+                Assert.True(expected == verdict,
+                    $"seed {seed}, level {level:R}: {verdict} where the full scan says {expected} "
                     + $"({full.Status}, D = {full.KsDistance:R})");
                 if (verdict == TailSearch.ReplicateVerdict.Below) below++;
                 else if (verdict == TailSearch.ReplicateVerdict.AtOrAbove) above++;
                 else invalid++;
             }
         }
-        Assert.True(below > 100 && above > 100 && invalid > 0, $"{below} below, {above} at or above, {invalid} invalid");
+        Assert.True(below > 100 && above > 100 && invalid > 0,
+            $"{below} below, {above} at or above, {invalid} invalid");
     }
+
+    private static TailSearch.ReplicateVerdict Expected(PowerLawFit full, double level) =>
+        full.Status != FitStatus.Ok ? TailSearch.ReplicateVerdict.Invalid
+            : full.KsDistance >= level ? TailSearch.ReplicateVerdict.AtOrAbove : TailSearch.ReplicateVerdict.Below;
 
     [Fact]
     public void LevelVerdictOnSharedScratchMatchesForBootstrapDraws()
@@ -237,9 +242,9 @@ public class ReplicateLevelTests
                 Synthetic.PowerLawTail(rng, pl.Alpha, pl.Xmin, nTail, gof);
                 var verdict = gof.NewSearch().ReachesLevel(20, pl.Xmin, pl.KsDistance);
                 var full = new TailSearch(gof.Values[..gof.Count], gof.Mult[..gof.Count], gof.Count).SearchFullScan(20);
-                var expected = full.Status != FitStatus.Ok ? TailSearch.ReplicateVerdict.Invalid
-                    : full.KsDistance >= pl.KsDistance ? TailSearch.ReplicateVerdict.AtOrAbove : TailSearch.ReplicateVerdict.Below;
-                Assert.True(expected == verdict, $"seed {seed}, replicate {r}: {verdict} where the full scan says {expected}");
+                var expected = Expected(full, pl.KsDistance);
+                Assert.True(expected == verdict,
+                    $"seed {seed}, replicate {r}: {verdict} where the full scan says {expected}");
                 n++;
             }
         }
@@ -263,7 +268,8 @@ public class ReplicateLevelTests
             }
             double exact = num / den, bound = TailSearch.CapExcessBound(v);
             Assert.True(bound >= exact, $"v = {v}: bound {bound:R} below E_30[ln(X/v)] = {exact:R}");
-            Assert.True(bound <= 1.0 / Math.Min(v, 64) + 1.0 / 28 + 1e-12, $"v = {v}: bound {bound:R} looser than the large-v one");
+            Assert.True(bound <= 1.0 / Math.Min(v, 64) + 1.0 / 28 + 1e-12,
+                $"v = {v}: bound {bound:R} looser than the large-v one");
         }
     }
 }
