@@ -2,8 +2,9 @@ using System.Diagnostics;
 using RankFreq.Fitting;
 
 /// <summary>
-/// One part of the bootstrap replicates alone, for a profiler (perf) to look at: `gof-draw`, `gof-search`, `ci-draw`
-/// or `ci-search` on a spectrum file, seed 1. Search parts draw their spectra first (outside the timed loop); every
+/// One part of the bootstrap replicates alone, for a profiler (perf) to look at: `gof-draw`, `gof-search`, `gof-level`
+/// (the goodness-of-fit replicate's question alone: is its distance at or above the data's), `ci-draw` or
+/// `ci-search` on a spectrum file, seed 1. Search parts draw their spectra first (outside the timed loop); every
 /// part runs twice, or ROUNDS times (the first round warms the JIT up), and prints CPU ms per replicate.
 /// </summary>
 internal static class ReplicateLoop
@@ -34,13 +35,19 @@ internal static class ReplicateLoop
             else Synthetic.Multinomial(new Xoshiro(1, 2, (ulong)r), plan, nTypes, buf);
         }
         var spectra = new List<(long[] V, long[] M)>();
-        if (part.EndsWith("search", StringComparison.Ordinal))
+        if (part.EndsWith("search", StringComparison.Ordinal) || part == "gof-level")
             for (int r = 0; r < reps; r++) { Draw(r); spectra.Add((buf.Values[..buf.Count], buf.Mult[..buf.Count])); }
         for (int round = 0; round < rounds; round++)
         {
             var t0 = Process.GetCurrentProcess().TotalProcessorTime;
             double check = 0;
-            if (spectra.Count > 0)
+            if (spectra.Count > 0 && part == "gof-level")
+                foreach (var (sv, sm) in spectra)
+                {
+                    var s = new TailSearch(sv, sm, sv.Length, buf.Search);
+                    check += (int)s.ReachesLevel(50, pl.Xmin, pl.KsDistance);
+                }
+            else if (spectra.Count > 0)
                 foreach (var (sv, sm) in spectra) check += new TailSearch(sv, sm, sv.Length, buf.Search).Search(50, 0, pl.Xmin).Alpha;
             else
                 for (int r = 0; r < reps; r++) { Draw(r); check += buf.Count; }

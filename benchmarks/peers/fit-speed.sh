@@ -8,9 +8,15 @@ set -euo pipefail
 cd "$(dirname "$0")/../.."
 work=benchmarks/work
 before=$1; after=$2; which=${3:-all}
+# steal: CPU time the hypervisor gave to other guests while this VM wanted it (/proc/stat, all CPUs, in seconds); on
+# a shared host it is the part of a wall time that no change here can remove
+steal() { awk '/^cpu /{print $9}' /proc/stat; }
 t() {
   local label=$1 out=$2; shift 2
-  /usr/bin/time -f "$label: %e s wall, %U s user, %S s sys, %M KiB peak; load $(cut -d' ' -f1 /proc/loadavg)" "$@" --json >"$out"
+  local s0; s0=$(steal)
+  /usr/bin/time -f "$label: %e s wall, %U s user, %S s sys, %M KiB peak; load $(cut -d' ' -f1 /proc/loadavg)" -o "$out.time" "$@" --json >"$out"
+  echo "$(cat "$out.time"); steal $(awk -v a="$s0" -v b="$(steal)" -v hz="$(getconf CLK_TCK)" 'BEGIN{printf "%.2f s", (b-a)/hz}')"
+  rm -f "$out.time"
 }
 run() {
   local name=$1 file=$2; shift 2

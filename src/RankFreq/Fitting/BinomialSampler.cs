@@ -50,10 +50,20 @@ public static class BinomialSampler
         return n * p < 10 ? Inversion(rng, n, p) : Btrs(rng, n, p);
     }
 
-    private static long Inversion(Xoshiro rng, long n, double p)
+    /// <summary><see cref="Draw(Xoshiro, long, double)"/> for a probability given with its ln(1 − p) =
+    /// LogMath.Log1p(−p) and odds p/(1 − p), as a table of cells holds them: the same variate to the bit, one logarithm and one division fewer.</summary>
+    internal static long Draw(Xoshiro rng, long n, double p, double log1mP, double odds)
     {
-        double q = 1 - p, s = p / q, a = (n + 1) * s;
-        double f0 = Math.Exp(n * LogMath.Log1p(-p));
+        if (n <= 0 || !(p > 0) || p > 0.5) return Draw(rng, n, p);
+        return n * p < 10 ? Inversion(rng, n, odds, log1mP) : Btrs(rng, n, p);
+    }
+
+    private static long Inversion(Xoshiro rng, long n, double p) => Inversion(rng, n, p / (1 - p), LogMath.Log1p(-p));
+
+    private static long Inversion(Xoshiro rng, long n, double s, double log1mP)
+    {
+        double a = (n + 1) * s;
+        double f0 = Math.Exp(n * log1mP);
         while (true)
         {
             double u = rng.NextDouble(), f = f0;

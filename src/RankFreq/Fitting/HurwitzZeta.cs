@@ -65,9 +65,11 @@ public static class HurwitzZeta
     /// relative, tested in HurwitzZetaTests over s ∈ [1.01, 30], q ∈ [12, 10^12]); for bounds that carry a margin, such
     /// as the xmin search's screen, never for the fitted α.
     /// </summary>
-    internal static ZetaValue ScaledQuick(double s, double q, double lnQ)
+    internal static ZetaValue ScaledQuick(double s, double q, double lnQ) => ScaledQuick(s, q, lnQ, 1 / (s - 1));
+
+    /// <summary><see cref="ScaledQuick(double, double, double)"/> given <paramref name="inv"/> = 1/(s − 1).</summary>
+    internal static ZetaValue ScaledQuick(double s, double q, double lnQ, double inv)
     {
-        double inv = 1 / (s - 1);
         double integral = q * inv;                // q^(1−s)/(s−1), scaled by q^s
         double z = integral + 0.5;
         double dl = -lnQ - inv;

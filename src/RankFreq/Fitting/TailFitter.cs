@@ -8,7 +8,8 @@ namespace RankFreq.Fitting;
 /// power-law MLE with xmin chosen by the KS criterion, semi-parametric bootstrap goodness of fit (§4.1) with the
 /// full xmin search on every synthetic set, nonparametric bootstrap uncertainty, and likelihood-ratio comparisons
 /// with alternative families (§5). Replicate r draws from a generator seeded by (seed, r), so results are the same
-/// for any thread count.
+/// for any thread count. A goodness-of-fit replicate with a free xmin only asks whether its search's distance reaches
+/// the data's (<see cref="TailSearch.ReachesLevel"/>), which gives the same p-value as comparing the searched distance.
 /// </summary>
 public static class TailFitter
 {
@@ -37,7 +38,7 @@ public static class TailFitter
         double gofP = nan;
         if (options.Reps > 0)
         {
-            var d = new double[options.Reps];
+            var above = new sbyte[options.Reps]; // 1: distance ≥ the data's, 0: below, −1: the replicate's fit failed
             int done = 0;
             // enough cells for any tail count a replicate draws in practice (mean + 10 sd + 100); beyond, computed
             long maxTail = pl.NTail + 10 * (long)Math.Ceiling(Math.Sqrt(pl.NTail)) + 100;
@@ -50,14 +51,28 @@ public static class TailFitter
                 if (options.Xmin <= 0) Synthetic.Multinomial(rng, v, m, 0, from, nTypes - nTail, buf);
                 Synthetic.PowerLawTail(rng, pl.Alpha, pl.Xmin, nTail, buf, cells);
                 var s = buf.NewSearch();
-                var f = s.Search(options.MinTail, options.Xmin, pl.Xmin);
-                d[r] = f.Status == FitStatus.Ok ? f.KsDistance : double.NaN;
+                if (options.Xmin > 0)
+                {
+                    var f = s.Search(options.MinTail, options.Xmin, pl.Xmin);
+                    above[r] = (sbyte)(f.Status == FitStatus.Ok ? (f.KsDistance >= pl.KsDistance ? 1 : 0) : -1);
+                }
+                else
+                {
+                    // only "ok, and at or above the data's distance?" counts: asked of the search directly, most
+                    // replicates need no fit of their own best candidate (TailSearch.ReachesLevel)
+                    above[r] = (sbyte)(s.ReachesLevel(options.MinTail, pl.Xmin, pl.KsDistance) switch
+                    {
+                        TailSearch.ReplicateVerdict.AtOrAbove => 1,
+                        TailSearch.ReplicateVerdict.Below => 0,
+                        _ => -1,
+                    });
+                }
                 int k = Interlocked.Increment(ref done);
                 if ((k & 63) == 0) progress?.Report(new FitProgress("goodness of fit", k, options.Reps));
                 return buf;
             }, _ => { });
-            var valid = d.Where(double.IsFinite).ToArray();
-            gofP = valid.Length == 0 ? nan : valid.Count(x => x >= pl.KsDistance) / (double)valid.Length;
+            int valid = above.Count(x => x >= 0);
+            gofP = valid == 0 ? nan : above.Count(x => x == 1) / (double)valid;
         }
 
         double aSd = nan, aLo = nan, aHi = nan, xLo = nan, xHi = nan, nSd = nan;

@@ -89,16 +89,22 @@ public sealed partial class TailSearch
         points = default; slack = 0;
         // ζ·v_i^α₀ and its derivatives (no logarithm: the bound points need 1/ζ·v_i^α₀ only); in fewer divisions from
         // v_i = 12 on, where a few 1e-16 of difference are far inside the margin
-        z0 = _v[i] >= QuickFrom ? HurwitzZeta.ScaledQuick(a0, _v[i], _lnV[i]) : HurwitzZeta.ScaledAt(a0, _v[i], _lnV[i], true);
-        double r1 = z0.D1 / z0.Value, r2 = z0.D2 / z0.Value;   // ζ'/ζ and ζ''/ζ, as LogAt gives them
+        // 1/(α₀ − 1) is shared with the quick sums; the ratios and the bound points take one reciprocal of the sum
+        // (rounding differences of a few 1e-16 against dividing each, far inside the margin)
+        double invA = 1 / (a0 - 1);
+        z0 = _v[i] >= QuickFrom ? HurwitzZeta.ScaledQuick(a0, _v[i], _lnV[i], invA)
+            : HurwitzZeta.ScaledAt(a0, _v[i], _lnV[i], true);
+        double invZ = 1 / z0.Value;
+        double r1 = z0.D1 * invZ, r2 = z0.D2 * invZ;   // ζ'/ζ and ζ''/ζ
         double score = -_lnSuffix[i] / _nSuffix[i] - r1;
         double info = r2 - r1 * r1;
+        if (!(info > 0)) return false;
         double step = score / info;
-        if (!double.IsFinite(step) || !(info > 0)) return false;
+        if (!double.IsFinite(step)) return false;
         double sl = Math.Sqrt(info) * (2 * Math.Abs(step) + 1e-10 * a0);
         bool both = sl <= 1e-6;
         if (!both && !(Math.Abs(step) > 1e-9 * a0)) return false;
-        points = new ScreenPoint(this, i, a0, 1 / z0.Value, both, score > 0);
+        points = new ScreenPoint(this, i, a0, invZ, invA, both, score > 0);
         slack = both ? sl : 0;
         return true;
     }
@@ -120,7 +126,8 @@ public sealed partial class TailSearch
     }
 
     /// <summary>One-sided deviations of the tail at index i from the law at α₀, as lower bounds (see <see cref="Screen"/>).</summary>
-    private readonly struct ScreenPoint(TailSearch s, int i, double a0, double invScaledZ, bool both, bool up)
+    private readonly struct ScreenPoint(TailSearch s, int i, double a0, double invScaledZ, double invA, bool both,
+        bool up)
     {
         /// <summary>Both sides count (the start is within a tiny step of α̂).</summary>
         public bool Both => both;
@@ -128,13 +135,13 @@ public sealed partial class TailSearch
         /// <summary>α̂ lies above the start: G − F is the side tested.</summary>
         public bool Up => up;
 
-        private readonly double _invA = 1 / (a0 - 1);
+        private readonly double _invN = 1.0 / s._nSuffix[i];
 
         /// <summary>Lower bound on G − F (up) or F − G (down) at x = v_j and, for j &gt; i, at x = v_j − 1.</summary>
         public double Deviation(int j)
         {
             double n = s._nSuffix[i];
-            double fAt = (n - s._nSuffix[j + 1]) / n;      // empirical CDF at v_j
+            double fAt = (n - s._nSuffix[j + 1]) * _invN;  // empirical CDF at v_j
             // p(v_j) = v_j^−α₀/ζ = (v_j/v_i)^−α₀ / (ζ·v_i^α₀)
             double pmf = Math.Exp(-a0 * (s._lnV[j] - s._lnV[i])) * invScaledZ;
             double tLo, tHi;                                // bounds on T(v_j) = P(X ≥ v_j)
@@ -143,13 +150,13 @@ public sealed partial class TailSearch
             {
                 // y^(1−α)/((α−1)ζ) = p(y)·y/(α−1) and (y−½)^(1−α)/((α−1)ζ) = p(y)·(y−½)/(α−1)·e^(α ln(y/(y−½)))
                 double y = s._v[j];
-                tLo = pmf * (y * _invA + 0.5);
-                tHi = pmf * (y - 0.5) * _invA * ExpSmall(a0 * s.HalfShift(j));
+                tLo = pmf * (y * invA + 0.5);
+                tHi = pmf * (y - 0.5) * invA * ExpSmall(a0 * s.HalfShift(j));
             }
             double down = fAt - (1 - tLo + pmf);             // F − G at v_j, G(v_j) = 1 − T(v_j) + p(v_j)
             if (!up && !both) return down;
             double dev = 1 - tHi + pmf - fAt;                // G − F at v_j
-            if (j > i) dev = Math.Max(dev, 1 - tHi - (n - s._nSuffix[j]) / n); // at v_j − 1
+            if (j > i) dev = Math.Max(dev, 1 - tHi - (n - s._nSuffix[j]) * _invN); // at v_j − 1
             return both ? Math.Max(dev, down) : dev;
         }
     }

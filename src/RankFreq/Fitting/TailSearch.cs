@@ -33,6 +33,9 @@ namespace RankFreq.Fitting;
 /// of the probe is kept, so the walk computes the same distance to the bit. Bootstrap replicates visit the data's
 /// xmin first (<see cref="Search(int, long, long)"/>): the order does not change the choice (smallest distance, ties
 /// to the lower index) and only moves the warm starts, so α agrees to the Newton tolerance.</para>
+/// <para>Goodness-of-fit replicates need only whether the search's distance reaches the data's:
+/// <see cref="ReachesLevel"/> runs the search with that level as its best distance from the start, which spares the
+/// fits and complete KS walks of every new best candidate (proof sketch in its remarks).</para>
 /// </remarks>
 public sealed partial class TailSearch
 {
@@ -49,6 +52,7 @@ public sealed partial class TailSearch
     private readonly long[] _nSuffix;     // Σ_{j≥i} m_j
     private readonly double[] _lnSuffix;  // Σ_{j≥i} m_j ln v_j
     private readonly double[] _lnV;       // ln v_j
+    private readonly int _firstAtCapRisk = int.MaxValue; // lowest index whose tail might fit at the α cap (NoneAtCap)
 
     /// <summary>Prepares the suffix sums for a spectrum given as parallel arrays (values strictly increasing, first <paramref name="count"/> used).</summary>
     public TailSearch(long[] values, long[] mult, int count) : this(values, mult, count, null) { }
@@ -79,6 +83,9 @@ public sealed partial class TailSearch
             _lnV[i] = (ulong)x < (ulong)lnSmall.Length ? lnSmall[x] : Math.Log(x);
             _nSuffix[i] = _nSuffix[i + 1] + mult[i];
             _lnSuffix[i] = _lnSuffix[i + 1] + mult[i] * _lnV[i];
+            // the cap check of NoneAtCap without a division: mean excess of ln x over ln v_i against its bound
+            double n = _nSuffix[i];
+            if (!(_lnSuffix[i] - n * _lnV[i] > n * CapExcessLimit(x))) _firstAtCapRisk = i;
         }
     }
 
@@ -444,19 +451,129 @@ public sealed partial class TailSearch
     /// The full fit: xmin minimising the KS distance over candidates (observed values with at least <paramref name="minTail"/>
     /// tail points and three distinct values), or the given <paramref name="fixedXmin"/>.
     /// </summary>
-    public PowerLawFit Search(int minTail, long fixedXmin = 0) => SearchCore(minTail, fixedXmin, full: false);
+    public PowerLawFit Search(int minTail, long fixedXmin = 0) => SearchCore(minTail, fixedXmin, full: false)!;
 
     /// <summary><see cref="Search(int, long)"/> visiting the candidate at <paramref name="firstXmin"/> (the first value at or above
     /// it) before all others: a bootstrap replicate's KS-best xmin is usually near the data's, so the best distance is
     /// small from the start and the other candidates are screened instead of fitted. The result is the same candidate
     /// (the choice is the smallest distance, ties to the lower index, whatever the order), with α the same Newton root
     /// to its tolerance (the warm starts follow the order).</summary>
-    internal PowerLawFit Search(int minTail, long fixedXmin, long firstXmin) => SearchCore(minTail, fixedXmin, full: false, firstXmin);
+    internal PowerLawFit Search(int minTail, long fixedXmin, long firstXmin) => SearchCore(minTail, fixedXmin, full: false, firstXmin)!;
 
     /// <summary>Reference implementation of <see cref="Search(int, long)"/>: every candidate's KS distance point by point.</summary>
-    internal PowerLawFit SearchFullScan(int minTail, long fixedXmin = 0) => SearchCore(minTail, fixedXmin, full: true);
+    internal PowerLawFit SearchFullScan(int minTail, long fixedXmin = 0) => SearchCore(minTail, fixedXmin, full: true)!;
 
-    private PowerLawFit SearchCore(int minTail, long fixedXmin, bool full, long firstXmin = 0)
+    /// <summary>What a goodness-of-fit replicate needs of <see cref="Search(int, long, long)"/> (free xmin): whether the
+    /// search would give status ok, and whether its KS distance then reaches <paramref name="level"/> — found without
+    /// fitting the replicate's best candidate whenever it can be (see the remarks).</summary>
+    /// <remarks>
+    /// The p-value counts replicates whose search is ok with distance ≥ the data's. The search's distance is the
+    /// smallest over the candidates whose fit is ok or at the cap, and its status that of the candidate reaching it.
+    /// (1) When no candidate can have its α at the cap (<see cref="NoneAtCap"/>), the candidate reaching the smallest
+    /// distance is ok (the search skips candidates whose Newton run did not converge), so the status is ok as soon as
+    /// one candidate's fit is ok (the first candidate is fitted to show it when nothing else was), and only "is the
+    /// smallest distance below the level" is asked.
+    /// (2) That is the search itself started with the level as its best distance and no best candidate: every candidate
+    /// with distance ≥ the level is screened out or abandoned at the level exactly as a candidate at or above a best
+    /// distance is (the screen and the KS walk only ever drop what cannot go below it), and the first candidate whose
+    /// walk ends below the level answers "below" at once. So the answer equals that of comparing the full search's
+    /// distance with the level, except where the two differ by the rounding of a warm-started Newton root (~1e-15
+    /// relative), as between two visiting orders of the search itself. Without (1) the full search runs.
+    /// </remarks>
+    internal ReplicateVerdict ReachesLevel(int minTail, long firstXmin, double level)
+    {
+        if (!(level >= 0) || !NoneAtCap(minTail))
+        {
+            var f = Search(minTail, 0, firstXmin);
+            return f.Status != FitStatus.Ok ? ReplicateVerdict.Invalid
+                : f.KsDistance >= level ? ReplicateVerdict.AtOrAbove : ReplicateVerdict.Below;
+        }
+        if (SearchCore(minTail, 0, full: false, firstXmin, level) is not null) return ReplicateVerdict.Below;
+        // nothing below the level: the full search's status is ok when any candidate's fit is (step (1)); one fit
+        // shows it
+        if (FitAt(0).Status == FitStatus.Ok) return ReplicateVerdict.AtOrAbove;
+        var g = Search(minTail, 0, firstXmin);
+        return g.Status != FitStatus.Ok ? ReplicateVerdict.Invalid
+            : g.KsDistance >= level ? ReplicateVerdict.AtOrAbove : ReplicateVerdict.Below;
+    }
+
+    /// <summary>
+    /// True when there is at least one xmin candidate and none can have its likelihood still rising at α = 30 (a fit at
+    /// the cap): for each, the tail's mean of ln x − ln v_i exceeds an upper bound on E_30[ln X − ln v_i] over x ≥ v_i.
+    /// </summary>
+    /// <remarks>
+    /// A mean above E_30[ln X] makes the score at the cap negative, so the fit's root lies below 30. With v = v_i,
+    /// ln(X/v) = Σ_{k≥1} 1{X ≥ v+k} ln((v+k)/(v+k−1)), so E[ln(X/v)] = Σ_{k≥1} P(X ≥ v+k) ln(1 + 1/(v+k−1)), where
+    /// P(X ≥ v+k) = ζ(30, v+k)/ζ(30, v). Bounding the sums by integrals of the decreasing x^−30: from v = 64 on,
+    /// ζ(30, v+k) ≤ (v+k−1)^−29/29 and ζ(30, v) ≥ v^−29/29 give P ≤ (1 + (k−1)/v)^−29, and with ln(1 + t) ≤ t and
+    /// X/v − 1 = Σ_k 1{X ≥ v+k}/v the bound E ≤ (1 + Σ_{j≥1} (1 + j/v)^−29)/v ≤ 1/v + 1/28 ≤ 1/64 + 1/28 (the constant
+    /// used, so the check needs no division; it is made for every tail in the constructor). Below 64 (where that is
+    /// loose) <see cref="CapBoundSmall"/> sums min(1, (v/(v+k))^30 (1 + (v+k)/29)) ln(1 + 1/(v+k−1)) over k, from
+    /// ζ(30, q) ≤ q^−30 + q^−29/29 and ζ(30, v) ≥ v^−30. Power-law-like tails have a mean excess ≈ 1/(α − 1) ≫ 1/28.
+    /// </remarks>
+    private bool NoneAtCap(int minTail)
+    {
+        int candidates = 0;
+        while (candidates < _k - 2 && _nSuffix[candidates] >= minTail) candidates++;
+        // each tail checked as the suffix sums are made (the constructor), lowest failing index kept
+        return candidates > 0 && _firstAtCapRisk >= candidates;
+    }
+
+    /// <summary>Upper bound on E_30[ln(X/v)] for the power law with α = 30 on x ≥ v (see <see cref="NoneAtCap"/>); from
+    /// v = 64 on the constant 1/64 + 1/28 (≥ 1/v + 1/28), so that no division is needed.</summary>
+    internal static double CapExcessBound(long v) =>
+        (ulong)v < (ulong)CapBoundSmall.Length ? CapBoundSmall[v] : 1.0 / 64 + 1.0 / 28;
+
+    /// <summary><see cref="CapExcessBound"/> plus a margin of 1e-9 for the rounding of the suffix sums.</summary>
+    private static double CapExcessLimit(long v) =>
+        (ulong)v < (ulong)CapLimitSmall.Length ? CapLimitSmall[v] : 1.0 / 64 + 1.0 / 28 + 1e-9;
+
+
+    /// <summary>Upper bounds on E_30[ln(X/v)] over x ≥ v for v &lt; 64 (see <see cref="NoneAtCap"/>): the sum, with a
+    /// relative margin of 1e-6 for rounding and for the terms left out (each below 1e-30, falling like k^−29), or the
+    /// large-v bound where that is smaller.</summary>
+    private static readonly double[] CapBoundSmall = BuildCapBoundSmall();
+
+    // after CapBoundSmall: static fields are initialised in the order written
+    private static readonly double[] CapLimitSmall = CapBoundSmall.Select(b => b + 1e-9).ToArray();
+
+    private static double[] BuildCapBoundSmall()
+    {
+        var t = new double[64];
+        t[0] = double.PositiveInfinity;
+        for (int v = 1; v < t.Length; v++)
+        {
+            double sum = 0;
+            for (int k = 1; ; k++)
+            {
+                double q = v + k;
+                double p = Math.Min(1, Math.Pow(v / q, 30) * (1 + q / 29));
+                double term = p * Math.Log(1 + 1.0 / (q - 1));
+                sum += term;
+                if (term < 1e-30 && k > 64) break;
+            }
+            // both are bounds; the sum is the tighter one for small v
+            t[v] = Math.Min(sum * (1 + 1e-6) + 1e-300, 1.0 / v + 1.0 / 28);
+        }
+        return t;
+    }
+
+    /// <summary>Answer of <see cref="ReachesLevel"/>.</summary>
+    internal enum ReplicateVerdict
+    {
+        /// <summary>The search's status is not ok (the replicate is left out of the p-value).</summary>
+        Invalid,
+        /// <summary>Status ok with a KS distance below the level.</summary>
+        Below,
+        /// <summary>Status ok with a KS distance at or above the level.</summary>
+        AtOrAbove,
+    }
+
+    /// <summary>The search; with a finite <paramref name="level"/> (free xmin, pruned only) the level acts as the best
+    /// distance before any candidate is fitted, the first candidate below it is returned at once, and null means none
+    /// is below it (<see cref="ReachesLevel"/>).</summary>
+    private PowerLawFit? SearchCore(int minTail, long fixedXmin, bool full, long firstXmin = 0,
+        double level = double.PositiveInfinity)
     {
         long total = _nSuffix[0];
         if (total == 1)
@@ -475,7 +592,8 @@ public sealed partial class TailSearch
             return f.Status == FitStatus.AtBound ? NoMaximum(f, fixedXmin) : f;
         }
         PowerLawFit? best = null;
-        double bestD = double.PositiveInfinity;
+        double bestD = level;
+        bool decide = double.IsFinite(level);
         int bestI = -1;
         bool anyInterior = false;
         int candidates = 0;
@@ -483,7 +601,9 @@ public sealed partial class TailSearch
         // Full scan: candidates in order, each abandoned once its distance reaches the best so far. Pruned: a sample of
         // every stride-th candidate first, so that the best distance is small early and the rest are abandoned sooner;
         // ties go to the lower index as in the full scan (a lower-index candidate is abandoned only above the best).
-        int stride = full ? 1 : Math.Max(1, (int)Math.Sqrt(candidates));
+        // (with a fixed level there is no best distance to lower early: one pass in order, which keeps the screen's
+        // remembered witness points useful from one candidate to the next)
+        int stride = full || decide ? 1 : Math.Max(1, (int)Math.Sqrt(candidates));
         // pass 0 visits only the candidate asked for first (if any), pass 1 the sample, pass 2 the rest
         int first0 = full || firstXmin <= 0 ? -1 : IndexOf(firstXmin);
         if (first0 >= candidates) first0 = -1;
@@ -495,10 +615,12 @@ public sealed partial class TailSearch
         {
             double warm = best?.Alpha ?? 2;
             double offset = double.NaN; // α − closed-form approximation at the last interior fit: predicts the next start
-            for (int i = pass == 0 ? first0 : 0; i < (pass == 0 ? first0 + 1 : candidates); i++)
+            // pass 1 steps through the sample, pass 2 through the rest (rem = i mod stride, kept without a division)
+            int step = pass == 1 && stride > 1 ? stride : 1;
+            for (int i = pass == 0 ? first0 : 0, rem = 0; i < (pass == 0 ? first0 + 1 : candidates);
+                i += step, rem = step > 1 || rem + 1 == stride ? 0 : rem + 1)
             {
-                bool sampled = i % stride == 0;
-                if (pass > 0 && (i == first0 || stride > 1 && sampled != (pass == 1))) continue;
+                if (pass > 0 && (i == first0 || pass == 2 && rem == 0)) continue;
                 double giveUp = i < bestI ? Math.BitIncrement(bestD) : bestD;
                 PowerLawFit f;
                 double lnZeta = double.NaN;
@@ -522,11 +644,16 @@ public sealed partial class TailSearch
                     offset = f.Alpha - f.AlphaApprox;
                 }
                 double d = full ? KsFullScan(i, f.Alpha, giveUp) : KsGiven(i, f.Alpha, giveUp, 0, lnZeta);
-                if (d < bestD || d == bestD && i < bestI) { bestD = d; bestI = i; best = f with { KsDistance = d }; }
+                if (d < bestD || d == bestD && i < bestI)
+                {
+                    bestD = d; bestI = i; best = f with { KsDistance = d };
+                    if (decide) return best;
+                }
             }
         }
+        if (decide) return null;
         // a screened candidate above its start might have had an interior fit: decide anyInterior exactly
-        if (best?.Status == FitStatus.AtBound && !anyInterior && screened) return SearchCore(minTail, fixedXmin, full: true);
+        if (best?.Status == FitStatus.AtBound && !anyInterior && screened) return SearchCore(minTail, fixedXmin, full: true)!;
         if (best is null)
         {
             if (total < minTail)

@@ -103,6 +103,35 @@ public class SpectrumSamplerTests
         }
     }
 
+    [Fact]
+    public void IndividualsAreAddedInOrderAsByASort()
+    {
+        // SpectrumBuffer.AddIndividuals (histogram near the smallest value, radix sort of the far ones) must give the
+        // buffer that sorting and grouping every value gives: heavy tails of 1 to 50,000 values spanning 1 to 60 bits
+        var rng = new Xoshiro(5, 9, 0);
+        foreach (int count in new[] { 1, 3, 100, 200, 1000, 7000, 50_000 })
+            foreach (double alpha in new[] { 1.05, 1.5, 2.5 })
+            {
+                var xs = new long[count];
+                Samplers.PowerLaw(rng, alpha, 1 + rng.NextLong(10_000), xs);
+                if (count > 3) xs[^1] = (1L << 60) + rng.NextLong(1000); // a value far past four radix digits
+                var expected = new SpectrumBuffer();
+                foreach (var g in xs.Order().GroupBy(x => x)) expected.Add(g.Key, g.Count());
+                var buf = new SpectrumBuffer();
+                buf.AddIndividuals(xs.ToArray());
+                Assert.Equal(expected.Values[..expected.Count], buf.Values[..buf.Count]);
+                Assert.Equal(expected.Mult[..expected.Count], buf.Mult[..buf.Count]);
+                // without the far value the range fits the radix passes (1 to 4 of them)
+                var near = xs.Where(x => x < 1L << 40).ToArray();
+                var expectedNear = new SpectrumBuffer();
+                foreach (var g in near.Order().GroupBy(x => x)) expectedNear.Add(g.Key, g.Count());
+                var bufNear = new SpectrumBuffer();
+                bufNear.AddIndividuals(near);
+                Assert.Equal(expectedNear.Values[..expectedNear.Count], bufNear.Values[..bufNear.Count]);
+                Assert.Equal(expectedNear.Mult[..expectedNear.Count], bufNear.Mult[..bufNear.Count]);
+            }
+    }
+
     [Theory]
     [InlineData(1.94, 66L, 400_000L, 400_000L)]
     [InlineData(2.5, 3L, 50_000L, 1_000L)]      // more points than the table was made for: it runs out, then computes

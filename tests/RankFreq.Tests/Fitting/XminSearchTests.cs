@@ -162,3 +162,114 @@ public class XminSearchTests
         }
     }
 }
+
+public class ReplicateLevelTests
+{
+    private static SpectrumBuffer Spectrum(ulong seed)
+    {
+        var rng = new Xoshiro(seed, 37, 0);
+        var buf = new SpectrumBuffer();
+        int shape = (int)(seed % 5);
+        if (shape == 4)
+        {
+            // a spike: one value holds nearly every type, so tails there sit near the α cap (the full search decides)
+            buf.Add(1, 1 + rng.NextLong(50));
+            buf.Add(7, 5000 + rng.NextLong(5000));
+            for (long x = 8; x < 8 + 3 + rng.NextLong(5); x++) buf.Add(x, 1);
+            return buf;
+        }
+        long head = 2 + rng.NextLong(40);
+        for (long x = 1; x < head; x++) buf.Add(x, rng.NextLong(300));
+        double alpha = 1.4 + 1.8 * rng.NextDouble();
+        Synthetic.PowerLawTail(rng, alpha, head, 100 + rng.NextLong(shape == 3 ? 40_000 : 4000), buf);
+        return buf;
+    }
+
+    [Fact]
+    public void LevelVerdictIsTheFullScansComparison()
+    {
+        // TailSearch.ReachesLevel (the goodness-of-fit replicates' question) against the full point-by-point scan:
+        // status ok or not, and distance at or above the level, for levels on both sides of each spectrum's distance
+        int below = 0, above = 0, invalid = 0;
+        for (ulong seed = 1; seed <= 120; seed++)
+        {
+            var buf = Spectrum(seed);
+            var full = new TailSearch(buf.Values, buf.Mult, buf.Count).SearchFullScan(20);
+            long first = buf.Values[(int)(seed % (ulong)buf.Count)];
+            foreach (double factor in new[] { 0.3, 1 - 1e-6, 1 + 1e-6, 3 })
+            {
+                double d = full.Status == FitStatus.Ok ? full.KsDistance : 0.05;
+                double level = d * factor;
+                var verdict = new TailSearch(buf.Values, buf.Mult, buf.Count).ReachesLevel(20, first, level);
+                var expected = Expected(full, level);
+                Assert.True(expected == verdict,
+                    $"seed {seed}, level {level:R}: {verdict} where the full scan says {expected} "
+                    + $"({full.Status}, D = {full.KsDistance:R})");
+                if (verdict == TailSearch.ReplicateVerdict.Below) below++;
+                else if (verdict == TailSearch.ReplicateVerdict.AtOrAbove) above++;
+                else invalid++;
+            }
+        }
+        Assert.True(below > 100 && above > 100 && invalid > 0,
+            $"{below} below, {above} at or above, {invalid} invalid");
+    }
+
+    private static TailSearch.ReplicateVerdict Expected(PowerLawFit full, double level) =>
+        full.Status != FitStatus.Ok ? TailSearch.ReplicateVerdict.Invalid
+            : full.KsDistance >= level ? TailSearch.ReplicateVerdict.AtOrAbove : TailSearch.ReplicateVerdict.Below;
+
+    [Fact]
+    public void LevelVerdictOnSharedScratchMatchesForBootstrapDraws()
+    {
+        // the goodness-of-fit path of TailFitter: replicate spectra drawn from a fitted law onto one reused buffer, the
+        // verdict at the data's distance against the full scan of a fresh copy
+        var gof = new SpectrumBuffer();
+        int n = 0;
+        for (ulong seed = 1; seed <= 30; seed++)
+        {
+            var baseBuf = Spectrum(seed);
+            long[] v = baseBuf.Values[..baseBuf.Count], m = baseBuf.Mult[..baseBuf.Count];
+            var pl = new TailSearch(v, m, v.Length).Search(20);
+            if (pl.Status != FitStatus.Ok) continue;
+            long nTypes = m.Sum();
+            int from = new TailSearch(v, m, v.Length).IndexOf(pl.Xmin);
+            for (ulong r = 0; r < 4; r++)
+            {
+                var rng = new Xoshiro(seed, 1, r);
+                gof.Clear();
+                long nTail = BinomialSampler.Draw(rng, nTypes, pl.NTail / (double)nTypes);
+                Synthetic.Multinomial(rng, v, m, 0, from, nTypes - nTail, gof);
+                Synthetic.PowerLawTail(rng, pl.Alpha, pl.Xmin, nTail, gof);
+                var verdict = gof.NewSearch().ReachesLevel(20, pl.Xmin, pl.KsDistance);
+                var full = new TailSearch(gof.Values[..gof.Count], gof.Mult[..gof.Count], gof.Count).SearchFullScan(20);
+                var expected = Expected(full, pl.KsDistance);
+                Assert.True(expected == verdict,
+                    $"seed {seed}, replicate {r}: {verdict} where the full scan says {expected}");
+                n++;
+            }
+        }
+        Assert.True(n > 60, $"only {n} replicates compared");
+    }
+
+    [Fact]
+    public void CapBoundExceedsTheMeanLogExcessAtAlpha30()
+    {
+        // E_30[ln(X/v)] over x ≥ v summed directly (terms in log space, until they vanish) must stay below the bound
+        // that lets a replicate skip the cap check (TailSearch.NoneAtCap), for small and large v
+        foreach (long v in new long[] { 1, 2, 3, 5, 10, 30, 63, 64, 65, 100, 1000, 100_000 })
+        {
+            double num = 0, den = 0;
+            for (long x = v; x < v + 200_000; x++)
+            {
+                double w = Math.Exp(-30 * (Math.Log(x) - Math.Log(v)));
+                if (w < 1e-300) break;
+                num += w * (Math.Log(x) - Math.Log(v));
+                den += w;
+            }
+            double exact = num / den, bound = TailSearch.CapExcessBound(v);
+            Assert.True(bound >= exact, $"v = {v}: bound {bound:R} below E_30[ln(X/v)] = {exact:R}");
+            Assert.True(bound <= 1.0 / Math.Min(v, 64) + 1.0 / 28 + 1e-12,
+                $"v = {v}: bound {bound:R} looser than the large-v one");
+        }
+    }
+}
