@@ -1,5 +1,4 @@
 using System.Buffers.Binary;
-using System.Text;
 
 namespace RankFreq.Counting;
 
@@ -25,7 +24,7 @@ internal static unsafe class SortedMerge
     private readonly record struct Row(ulong A, ulong B, int Len, int Part, int Index);
 
     /// <summary>Ranks <paramref name="tables"/> (two or more, none empty); frees their slots on the way.</summary>
-    public static (string?[] Tokens, long[] Counts, int[]? Ids) Rank(List<TokenTable> tables, GrowthHistogram growth,
+    public static (Utf8Tokens[] Tokens, long[] Counts, int[]? Ids) Rank(List<TokenTable> tables, GrowthHistogram growth,
         bool withIds)
     {
         var parts = new TokenTable.SortedTypes[tables.Count];
@@ -78,14 +77,8 @@ internal static unsafe class SortedMerge
             foreach (var p in parts) p.Dispose();
             parts = [];
 
-            var tokens = new string?[rows];
             nint rowsAt = (nint)placed;
-            Parallel.For(0, (rows + 8191) / 8192, part =>
-            {
-                Span<byte> buffer = stackalloc byte[16];
-                for (int r = part * 8192, end = Math.Min(rows, r + 8192); r < end; r++)
-                    tokens[r] = Encoding.UTF8.GetString(KeyOf(tables, ((Row*)rowsAt)[r], buffer));
-            });
+            var tokens = InMemoryRows.MakeChunks(rows, (r, buffer) => KeyOf(tables, ((Row*)rowsAt)[r], buffer));
             return (tokens, counts, ids);
         }
         finally
@@ -101,7 +94,7 @@ internal static unsafe class SortedMerge
     /// (count descending, ties by key bytes: the order of <see cref="Primitives.RankOrder"/>), so the rows are those of
     /// ranking one table holding every type. Frees the tables' slots on the way.
     /// </summary>
-    public static (string?[] Tokens, long[] Counts, int[]? Ids) RankDisjoint(List<TokenTable> tables, GrowthHistogram growth,
+    public static (Utf8Tokens[] Tokens, long[] Counts, int[]? Ids) RankDisjoint(List<TokenTable> tables, GrowthHistogram growth,
         bool withIds)
     {
         int k = tables.Count;
@@ -148,14 +141,8 @@ internal static unsafe class SortedMerge
             foreach (var p in parts) p.Dispose();
             parts = [];
 
-            var tokens = new string?[rows];
             nint rowsAt = (nint)placed;
-            Parallel.For(0, (rows + 8191) / 8192, chunk =>
-            {
-                Span<byte> buffer = stackalloc byte[16];
-                for (int r = chunk * 8192, end = Math.Min(rows, r + 8192); r < end; r++)
-                    tokens[r] = Encoding.UTF8.GetString(KeyOf(tables, ((Row*)rowsAt)[r], buffer));
-            });
+            var tokens = InMemoryRows.MakeChunks(rows, (r, buffer) => KeyOf(tables, ((Row*)rowsAt)[r], buffer));
             return (tokens, counts, ids);
         }
         finally

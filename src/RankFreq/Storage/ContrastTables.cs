@@ -34,7 +34,7 @@ public static class ContrastTables
                 foreach (var b in RowGroups.Of(g.Rows.Batches()))
                 {
                     ct.ThrowIfCancellationRequested();
-                    var data = new List<Array> { Enumerable.Repeat<string?>(g.Group, b.Counts.Length).ToArray() };
+                    var data = new List<object> { Enumerable.Repeat<string?>(g.Group, b.Counts.Length).ToArray() };
                     data.AddRange(CountTableFile.BatchColumns(b, hasIds, meta.RedactedBelow));
                     w.WriteRowGroup(b.Counts.Length, data);
                 }

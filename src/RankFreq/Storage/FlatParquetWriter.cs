@@ -51,9 +51,9 @@ internal sealed class FlatParquetWriter : IDisposable
     /// <summary>The writer name recorded in the footer.</summary>
     public string CreatedBy { get; init; } = "rankfreq";
 
-    /// <summary>Writes one row group; <paramref name="data"/> holds, per column, a <c>string?[]</c>, <c>int[]</c> or
-    /// <c>long[]</c> of <paramref name="rows"/> values.</summary>
-    public void WriteRowGroup(int rows, IReadOnlyList<Array> data)
+    /// <summary>Writes one row group; <paramref name="data"/> holds, per column, a <c>string?[]</c> or
+    /// <see cref="Utf8Values"/> (string columns), <c>int[]</c> or <c>long[]</c> of <paramref name="rows"/> values.</summary>
+    public void WriteRowGroup(int rows, IReadOnlyList<object> data)
     {
         if (data.Count != _columns.Count) throw new ArgumentException("one array per column");
         if (rows == 0) return;
@@ -69,6 +69,7 @@ internal sealed class FlatParquetWriter : IDisposable
             var values = data[j / perColumn];
             slot.Len = col.Type switch
             {
+                FlatType.String when values is Utf8Values u => EncodeUtf8(ref slot.Page, u, start, n, col.Nullable),
                 FlatType.String => EncodeStrings(ref slot.Page, (string?[])values, start, n, col.Nullable),
                 FlatType.Int32 => EncodeFixed(ref slot.Page, (int[])values, start, n),
                 _ => EncodeFixed(ref slot.Page, (long[])values, start, n),
@@ -143,6 +144,44 @@ internal sealed class FlatParquetWriter : IDisposable
             int w = Encoding.UTF8.GetBytes(v, page.AsSpan(pos + 4));
             BinaryPrimitives.WriteInt32LittleEndian(page.AsSpan(pos), w);
             pos += 4 + w;
+        }
+        return pos;
+    }
+
+    /// <summary>A page of a string column given as UTF-8 (PLAIN: each value's length, then its bytes).</summary>
+    private static int EncodeUtf8(ref byte[] page, Utf8Values values, int start, int n, bool nullable)
+    {
+        var t = values.Tokens;
+        var isNull = values.IsNull;
+        int pos = 0;
+        if (nullable)
+        {
+            Ensure(ref page, 4 + 6 * n + 16);
+            pos = 4;
+            int i = 0;
+            while (i < n)
+            {
+                bool present = isNull is null || !isNull[start + i];
+                int run = 1;
+                while (i + run < n && (isNull is null || !isNull[start + i + run]) == present) run++;
+                pos = WriteUVarint(page, pos, (ulong)run << 1);
+                page[pos++] = present ? (byte)1 : (byte)0;
+                i += run;
+            }
+            BinaryPrimitives.WriteInt32LittleEndian(page, pos - 4);
+        }
+        else if (isNull is not null && Array.IndexOf(isNull, true, start, n) >= 0)
+            throw new InvalidOperationException("null in a required column");
+        var starts = t.Starts;
+        Ensure(ref page, pos + 4 * n + (starts[start + n] - starts[start]));
+        var bytes = t.Bytes;
+        for (int i = start; i < start + n; i++)
+        {
+            if (isNull is not null && isNull[i]) continue;
+            int from = starts[i], len = starts[i + 1] - from;
+            BinaryPrimitives.WriteInt32LittleEndian(page.AsSpan(pos), len);
+            Buffer.BlockCopy(bytes, from, page, pos + 4, len);
+            pos += 4 + len;
         }
         return pos;
     }
