@@ -21,8 +21,8 @@ public static class CountTableFile
         {
             var columns = new List<FlatColumn> { new("token", FlatType.String, Nullable: true) };
             if (hasIds) columns.Add(new("token_id", FlatType.Int32));
-            columns.Add(new("count", FlatType.Int64));
-            columns.Add(new("rank", FlatType.Int64));
+            columns.Add(new("count", FlatType.Int64, Delta: true));
+            columns.Add(new("rank", FlatType.Int64, Delta: true));
             using var w = new FlatParquetWriter(stream, columns) { Metadata = meta.ToFooter(), CreatedBy = $"rankfreq {meta.ToolVersion}" };
             foreach (var b in RowGroups.Of(rows.Batches()))
             {

@@ -72,6 +72,7 @@ internal sealed class FlatParquetWriter : IDisposable
                 FlatType.String when values is Utf8Values u => EncodeUtf8(ref slot.Page, u, start, n, col.Nullable),
                 FlatType.String => EncodeStrings(ref slot.Page, (string?[])values, start, n, col.Nullable),
                 FlatType.Int32 => EncodeFixed(ref slot.Page, (int[])values, start, n),
+                FlatType.Int64 when col.Delta => DeltaBinaryPacked.Encode(ref slot.Page, ((long[])values).AsSpan(start, n)),
                 _ => EncodeFixed(ref slot.Page, (long[])values, start, n),
             };
             Ensure(ref slot.Packed, Compressor.GetCompressBound(slot.Len));
@@ -92,7 +93,7 @@ internal sealed class FlatParquetWriter : IDisposable
             long offset = _pos, unc = 0, comp = 0;
             for (int p = 0; p < perColumn; p++)
             {
-                var (u, z) = WritePage(_slots[c * perColumn + p], Math.Min(RowsPerPage, rows - p * RowsPerPage));
+                var (u, z) = WritePage(_slots[c * perColumn + p], Math.Min(RowsPerPage, rows - p * RowsPerPage), _columns[c]);
                 unc += u;
                 comp += z;
             }
@@ -186,7 +187,7 @@ internal sealed class FlatParquetWriter : IDisposable
         return pos;
     }
 
-    private (long Uncompressed, long Compressed) WritePage(PageSlot slot, int values)
+    private (long Uncompressed, long Compressed) WritePage(PageSlot slot, int values, FlatColumn column)
     {
         int len = slot.Len, z = slot.Compressed;
         var h = new ThriftCompactWriter();
@@ -195,7 +196,7 @@ internal sealed class FlatParquetWriter : IDisposable
         h.I32(3, z);            // compressed_page_size
         h.BeginStruct(5);       // data_page_header
         h.I32(1, values);       // num_values
-        h.I32(2, 0);            // encoding: PLAIN
+        h.I32(2, ValueEncoding(column)); // encoding: PLAIN or DELTA_BINARY_PACKED
         h.I32(3, 3);            // definition_level_encoding: RLE
         h.I32(4, 3);            // repetition_level_encoding: RLE
         h.EndStruct();
@@ -205,6 +206,9 @@ internal sealed class FlatParquetWriter : IDisposable
         Write(slot.Packed.AsSpan(0, z));
         return (header.Length + len, header.Length + z);
     }
+
+    /// <summary>The values' encoding: DELTA_BINARY_PACKED (5) for a delta column, else PLAIN (0).</summary>
+    private static int ValueEncoding(FlatColumn c) => c.Delta && c.Type == FlatType.Int64 ? 5 : 0;
 
     /// <summary>Writes the footer (FileMetaData, its length, the magic). Call once, after the last row group.</summary>
     public void Finish()
@@ -248,8 +252,8 @@ internal sealed class FlatParquetWriter : IDisposable
                 m.I64(2, ch.Offset);                         // file_offset
                 m.BeginStruct(3);                            // meta_data
                 m.I32(1, (int)_columns[c].Type);
-                m.BeginList(2, ThriftCompactWriter.I32Type, 2); // encodings: PLAIN, RLE
-                m.ListI32(0);
+                m.BeginList(2, ThriftCompactWriter.I32Type, 2); // encodings: PLAIN or DELTA_BINARY_PACKED, RLE
+                m.ListI32(ValueEncoding(_columns[c]));
                 m.ListI32(3);
                 m.BeginList(3, ThriftCompactWriter.Binary, 1);  // path_in_schema
                 m.ListString(_columns[c].Name);
