@@ -78,14 +78,10 @@ internal sealed unsafe partial class TokenTable : IDisposable
         _page = null;
     }
 
-    private static Slot* NewSlots(int n)
-    {
-        var p = (Slot*)NativeBlock.Alloc((long)n * sizeof(Slot));
-        // Write every page before probing it: a fresh page that is read first maps the shared zero page, and the
-        // later write then costs a copy-on-write fault with a TLB flush on every core.
-        new Span<Slot>(p, n).Clear();
-        return p;
-    }
+    private static Slot* NewSlots(int n) =>
+        // every page mapped for writing before it is probed: a fresh page that is read first maps the shared zero page,
+        // and the later write then costs a copy-on-write fault with a TLB flush on every core
+        (Slot*)NativeBlock.AllocWritten((long)n * sizeof(Slot));
 
     private void FreeAll()
     {
