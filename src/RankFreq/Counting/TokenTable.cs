@@ -334,7 +334,14 @@ internal sealed unsafe partial class TokenTable : IDisposable
             // spill before growth: under a limit the table fills to 3/4 and waits for its owner to spill it
             if (GrowthPeakBytes > GrowthLimit && (long)_count * 4 < 3L * _slotCount) OverLimit = true;
             else if (GrowthGate is null) Rehash();
-            else lock (GrowthGate) Rehash();
+            else if (Monitor.TryEnter(GrowthGate))
+            {
+                try { Rehash(); }
+                finally { Monitor.Exit(GrowthGate); }
+            }
+            // another table is growing: this one fills further (up to 3/4) and tries again at its next new key,
+            // rather than holding its partition's lock while it waits
+            else if ((long)_count * 4 >= 3L * _slotCount) lock (GrowthGate) Rehash();
         }
     }
 
