@@ -27,6 +27,29 @@ public sealed record FrequencySpectrum(long[] Values, long[] Types)
     /// <inheritdoc/>
     public override int GetHashCode() => HashCode.Combine(Values.Length, TypeCount, TokenCount);
 
+    /// <summary>
+    /// Builds a spectrum from one count per type in rank order (counts not increasing): one pass over runs of equal
+    /// counts. Counts in any other order are accepted too (through <see cref="FromCounts"/>).
+    /// </summary>
+    public static FrequencySpectrum FromRankedCounts(long[] counts)
+    {
+        var values = new List<long>();
+        var types = new List<long>();
+        for (int i = 0; i < counts.Length;)
+        {
+            long c = counts[i];
+            int j = i + 1;
+            while (j < counts.Length && counts[j] == c) j++;
+            if (j < counts.Length && counts[j] > c) return FromCounts(counts);
+            values.Add(c);
+            types.Add(j - i);
+            i = j;
+        }
+        values.Reverse();
+        types.Reverse();
+        return FromPairs(values.Zip(types));
+    }
+
     /// <summary>Builds a spectrum from one count per type.</summary>
     public static FrequencySpectrum FromCounts(IEnumerable<long> counts) => FromPairs(counts.Select(c => (c, 1L)));
 }

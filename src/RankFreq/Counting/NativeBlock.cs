@@ -19,6 +19,7 @@ internal static unsafe partial class NativeBlock
     private const int MapPrivateAnonymous = 0x02 | 0x20;
     private const int MremapMayMove = 1;
     private const int MadvHugePage = 14;
+    private const int MadvPopulateWrite = 23;
     private const long HugePageMinBytes = 8L << 20;
 
     /// <summary>A block of <paramref name="bytes"/> bytes (zero-filled).</summary>
@@ -36,6 +37,20 @@ internal static unsafe partial class NativeBlock
             return p;
         }
         return NativeMemory.AllocZeroed((nuint)bytes);
+    }
+
+    /// <summary>
+    /// A block of <paramref name="bytes"/> zero bytes whose pages are all mapped and writable already: for blocks that are
+    /// probed at random (see DEVELOPERS.md on the shared zero page). On Linux the kernel maps and zeroes them at once
+    /// (<c>MADV_POPULATE_WRITE</c>, on the huge pages asked for); where that is refused the block is written with zeros.
+    /// </summary>
+    public static void* AllocWritten(long bytes)
+    {
+        void* p = Alloc(bytes);
+        if (OperatingSystem.IsLinux() && Madvise(p, (nuint)Math.Max(1, bytes), MadvPopulateWrite) == 0) return p;
+        for (long at = 0; at < bytes; at += 1 << 30)
+            new Span<byte>((byte*)p + at, (int)Math.Min(1 << 30, bytes - at)).Clear();
+        return p;
     }
 
     /// <summary>Frees a block from <see cref="Alloc"/> or <see cref="Grow"/>.</summary>

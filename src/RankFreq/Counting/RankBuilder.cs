@@ -23,7 +23,7 @@ internal static class RankBuilder
                 var (tokensD, countsD, idsD) = SortedMerge.RankDisjoint(filled, growth, withIds);
                 foreach (var t in tables) t.Clear();
                 spill.Dispose();
-                return (new InMemoryRows(tokensD, idsD, countsD), FrequencySpectrum.FromCounts(countsD));
+                return (new InMemoryRows(tokensD, idsD, countsD), FrequencySpectrum.FromRankedCounts(countsD));
             }
             if (filled.Count > 1)
             {
@@ -31,7 +31,7 @@ internal static class RankBuilder
                 var (mergedTokens, mergedCounts, mergedIds) = SortedMerge.Rank(filled, growth, withIds);
                 foreach (var t in tables) t.Clear();
                 spill.Dispose();
-                return (new InMemoryRows(mergedTokens, mergedIds, mergedCounts), FrequencySpectrum.FromCounts(mergedCounts));
+                return (new InMemoryRows(mergedTokens, mergedIds, mergedCounts), FrequencySpectrum.FromRankedCounts(mergedCounts));
             }
             var all = tables.OrderByDescending(t => t.Count).ToList();
             var main = all[0];
@@ -39,7 +39,6 @@ internal static class RankBuilder
             main.FreeSlots(); // the slots are not read again: free them before the sort records are made
             var sorted = main.SortedByRank(parallel: true);
             int n = sorted.Length;
-            var tokens = new string?[n];
             var counts = new long[n];
             var ids = withIds ? new int[n] : null;
             for (int r = 0; r < n; r++)
@@ -48,19 +47,14 @@ internal static class RankBuilder
                 if (ids is not null) ids[r] = sorted.IdAt(r);
                 growth.Add(sorted.FirstAt(r));
             }
-            // short keys only: the strings come from the sort records, so the table can go before they are made
+            // short keys only: the tokens come from the sort records, so the table can go before they are made
             main.ReleaseIfSortRecordsSuffice();
-            // the strings, on all cores (reads only), from the sort records in rank order
-            Parallel.For(0, (n + 8191) / 8192, part =>
-            {
-                Span<byte> buffer = stackalloc byte[16];
-                for (int r = part * 8192, end = Math.Min(n, r + 8192); r < end; r++)
-                    tokens[r] = Encoding.UTF8.GetString(sorted.KeyAt(r, buffer));
-            });
+            // the tokens as UTF-8 chunks, on all cores (reads only), from the sort records in rank order
+            var chunks = InMemoryRows.MakeChunks(n, sorted.KeyAt);
             sorted.Dispose();
             main.Clear();
             spill.Dispose();
-            return (new InMemoryRows(tokens, ids, counts), FrequencySpectrum.FromCounts(counts));
+            return (new InMemoryRows(chunks, ids, counts), FrequencySpectrum.FromRankedCounts(counts));
         }
 
         foreach (var t in tables) spill.Spill(t);
@@ -136,25 +130,38 @@ internal static class RankBuilder
             _read = true;
             batchSize = Math.Min(batchSize, maxBatch);
             long rank = 1;
-            var tokens = new List<string?>(batchSize);
+            var bytes = new byte[1 << 16];
+            var starts = new List<int>(batchSize + 1);
             var counts = new List<long>(batchSize);
             var ids = new List<int>(withIds ? batchSize : 0);
+            int used = 0;
+            CountRowBatch Take()
+            {
+                starts.Add(used);
+                var batch = new CountRowBatch(rank, new Utf8Tokens(bytes[..used], [.. starts]), withIds ? [.. ids] : null,
+                    [.. counts]);
+                rank += counts.Count;
+                starts.Clear(); counts.Clear(); ids.Clear();
+                used = 0;
+                return batch;
+            }
             foreach (var r in RunMerge.Merge(runs, RunMerge.ByRank, spill.NewPath))
             {
-                tokens.Add(Encoding.UTF8.GetString(r.Key));
+                if (used + r.Key.Length > bytes.Length) Array.Resize(ref bytes, Math.Max(bytes.Length * 2, used + r.Key.Length));
+                starts.Add(used);
+                r.Key.CopyTo(bytes, used);
+                used += r.Key.Length;
                 counts.Add(r.Count);
                 if (withIds) ids.Add(r.Id);
                 if (counts.Count == batchSize)
                 {
-                    yield return new CountRowBatch(rank, tokens.ToArray(), withIds ? ids.ToArray() : null, counts.ToArray());
-                    rank += counts.Count;
-                    tokens.Clear(); counts.Clear(); ids.Clear();
+                    yield return Take();
                     // the batch just written is garbage now; collect it before the next one, so batches of a
                     // bounded-memory run do not pile up in the older generations until the collector gets to them
                     GC.Collect();
                 }
             }
-            if (counts.Count > 0) yield return new CountRowBatch(rank, tokens.ToArray(), withIds ? ids.ToArray() : null, counts.ToArray());
+            if (counts.Count > 0) yield return Take();
             // read once and to the end: the runs are of no further use, so they go now rather than at dispose
             spill.Dispose();
         }

@@ -1,5 +1,4 @@
 using System.Buffers.Binary;
-using System.Text;
 
 namespace RankFreq.Counting;
 
@@ -25,7 +24,7 @@ internal static unsafe class SortedMerge
     private readonly record struct Row(ulong A, ulong B, int Len, int Part, int Index);
 
     /// <summary>Ranks <paramref name="tables"/> (two or more, none empty); frees their slots on the way.</summary>
-    public static (string?[] Tokens, long[] Counts, int[]? Ids) Rank(List<TokenTable> tables, GrowthHistogram growth,
+    public static (Utf8Tokens[] Tokens, long[] Counts, int[]? Ids) Rank(List<TokenTable> tables, GrowthHistogram growth,
         bool withIds)
     {
         var parts = new TokenTable.SortedTypes[tables.Count];
@@ -78,14 +77,8 @@ internal static unsafe class SortedMerge
             foreach (var p in parts) p.Dispose();
             parts = [];
 
-            var tokens = new string?[rows];
             nint rowsAt = (nint)placed;
-            Parallel.For(0, (rows + 8191) / 8192, part =>
-            {
-                Span<byte> buffer = stackalloc byte[16];
-                for (int r = part * 8192, end = Math.Min(rows, r + 8192); r < end; r++)
-                    tokens[r] = Encoding.UTF8.GetString(KeyOf(tables, ((Row*)rowsAt)[r], buffer));
-            });
+            var tokens = InMemoryRows.MakeChunks(rows, (r, buffer) => KeyOf(tables, ((Row*)rowsAt)[r], buffer));
             return (tokens, counts, ids);
         }
         finally
@@ -101,7 +94,7 @@ internal static unsafe class SortedMerge
     /// (count descending, ties by key bytes: the order of <see cref="Primitives.RankOrder"/>), so the rows are those of
     /// ranking one table holding every type. Frees the tables' slots on the way.
     /// </summary>
-    public static (string?[] Tokens, long[] Counts, int[]? Ids) RankDisjoint(List<TokenTable> tables, GrowthHistogram growth,
+    public static (Utf8Tokens[] Tokens, long[] Counts, int[]? Ids) RankDisjoint(List<TokenTable> tables, GrowthHistogram growth,
         bool withIds)
     {
         int k = tables.Count;
@@ -129,33 +122,50 @@ internal static unsafe class SortedMerge
             // object heap as garbage through the table's write, on top of the strings
             placedBytes = (long)Math.Max(1, rows) * sizeof(Row);
             placed = (Row*)NativeBlock.Alloc(placedBytes);
-            var pos = new int[k];
-            for (int r = 0; r < rows; r++)
+            // the rank-ordered streams merged in segments side by side: segment s starts at the part-0 type
+            // s/segments of the way along and, in every other part, at the first type that does not rank before it
+            int segments = rows < 1 << 16 ? 1 : Math.Clamp(Environment.ProcessorCount, 1, 16);
+            var cut = new int[segments + 1][];
+            for (int sg = 0; sg <= segments; sg++)
             {
-                // the head ranking first among the parts (k is the thread count: a linear scan)
-                int m = -1;
+                cut[sg] = new int[k];
                 for (int i = 0; i < k; i++)
                 {
-                    if (pos[i] == parts[i].Length) continue;
-                    if (m < 0 || RankBefore(tables, parts, i, pos[i], m, pos[m])) m = i;
+                    if (sg == 0) continue;
+                    if (sg == segments) { cut[sg][i] = parts[i].Length; continue; }
+                    int p0 = (int)((long)parts[0].Length * sg / segments);
+                    cut[sg][i] = i == 0 ? p0 : CountRankingBefore(tables, parts, i, 0, p0);
                 }
-                var part = parts[m];
-                int at = pos[m]++;
-                counts[r] = part.CountAt(at);
-                if (ids is not null) ids[r] = part.IdAt(at);
-                placed[r] = new Row(part.AAt(at), part.BAt(at), part.LenAt(at), m, part.IndexAt(at));
             }
+            nint placedAt = (nint)placed;
+            var ps = parts;
+            Parallel.For(0, segments, sg =>
+            {
+                var pos = (int[])cut[sg].Clone();
+                var end = cut[sg + 1];
+                int r = cut[sg].Sum();
+                int stop = end.Sum();
+                for (; r < stop; r++)
+                {
+                    // the head ranking first among the parts (k is the thread count: a linear scan)
+                    int m = -1;
+                    for (int i = 0; i < k; i++)
+                    {
+                        if (pos[i] == end[i]) continue;
+                        if (m < 0 || RankBefore(tables, ps, i, pos[i], m, pos[m])) m = i;
+                    }
+                    var part = ps[m];
+                    int at = pos[m]++;
+                    counts[r] = part.CountAt(at);
+                    if (ids is not null) ids[r] = part.IdAt(at);
+                    ((Row*)placedAt)[r] = new Row(part.AAt(at), part.BAt(at), part.LenAt(at), m, part.IndexAt(at));
+                }
+            });
             foreach (var p in parts) p.Dispose();
             parts = [];
 
-            var tokens = new string?[rows];
             nint rowsAt = (nint)placed;
-            Parallel.For(0, (rows + 8191) / 8192, chunk =>
-            {
-                Span<byte> buffer = stackalloc byte[16];
-                for (int r = chunk * 8192, end = Math.Min(rows, r + 8192); r < end; r++)
-                    tokens[r] = Encoding.UTF8.GetString(KeyOf(tables, ((Row*)rowsAt)[r], buffer));
-            });
+            var tokens = InMemoryRows.MakeChunks(rows, (r, buffer) => KeyOf(tables, ((Row*)rowsAt)[r], buffer));
             return (tokens, counts, ids);
         }
         finally
@@ -163,6 +173,20 @@ internal static unsafe class SortedMerge
             foreach (var p in parts) p?.Dispose();
             NativeBlock.Free(placed, placedBytes);
         }
+    }
+
+    /// <summary>How many types of part <paramref name="pi"/> rank before type <paramref name="y"/> of part
+    /// <paramref name="py"/> (a binary search: each part is in rank order, and no type is in two parts).</summary>
+    private static int CountRankingBefore(List<TokenTable> tables, TokenTable.SortedTypes[] parts, int pi, int py, int y)
+    {
+        int lo = 0, hi = parts[pi].Length;
+        while (lo < hi)
+        {
+            int mid = (int)(((uint)lo + (uint)hi) >> 1);
+            if (RankBefore(tables, parts, pi, mid, py, y)) lo = mid + 1;
+            else hi = mid;
+        }
+        return lo;
     }
 
     /// <summary>Whether type <paramref name="x"/> of part <paramref name="px"/> ranks before type <paramref name="y"/> of

@@ -80,7 +80,7 @@ internal sealed unsafe partial class TokenTable
                 int size = hist[c];
                 if (size == 0) continue;
                 int lo = next[c] - size;
-                if (size > 1) RadixThenSort(byKey, keys + lo, size, 56, parallel);
+                if (size > 1) RadixThenSort(byKey, keys + lo, size, 0, parallel);
             }
             return new SortedTypes(this, keys, n);
         }
@@ -92,50 +92,89 @@ internal sealed unsafe partial class TokenTable
     }
 
     /// <summary>
-    /// Sorts <paramref name="n"/> records by key: in place by the key byte at <paramref name="shift"/> of the first
-    /// word (American flag sort: each record moved once to its byte's bucket), for the first two bytes, then each
-    /// bucket by comparison. The byte order is the comparison's order (big-endian words compared unsigned), so the
-    /// result is the same; the quicksort only sees buckets of keys that share two bytes.
+    /// Sorts <paramref name="n"/> records by key: in place by one key byte at a time (American flag sort: each record
+    /// moved once to its byte's bucket), from the first byte (<paramref name="level"/> 0) through the sixteenth while a
+    /// bucket holds at least <see cref="RadixMin"/> records, then each bucket by comparison. The byte order is the
+    /// comparison's order (big-endian words compared unsigned, first word first), so the result is the same; the
+    /// comparison sort only sees small buckets and keys that share their first 16 bytes.
     /// </summary>
-    private static void RadixThenSort(SortKeyComparer byKey, SortKey* a, int n, int shift, bool parallel)
+    /// <remarks>
+    /// Bucket 0 of a level holds the keys that end before that byte (zero padding), at most one short key per prefix,
+    /// so it goes to the comparison sort at once instead of through the remaining levels.
+    /// </remarks>
+    private static void RadixThenSort(SortKeyComparer byKey, SortKey* a, int n, int level, bool parallel)
     {
-        if (n < 4096 || shift < 48)
+        if (n < RadixMin || level >= 16)
         {
             if (parallel) byKey.SortParallel(a, n);
             else byKey.Sort(a, 0, n - 1);
             return;
         }
-        var head = new int[257];
-        for (int i = 0; i < n; i++) head[(int)(a[i].A >> shift) & 255]++;
-        var start = new int[257];
-        for (int d = 0, sum = 0; d < 256; d++) { start[d] = sum; sum += head[d]; }
-        start[256] = n;
-        Array.Copy(start, head, 257);
-        for (int d = 0; d < 256; d++)
+        int shift = 56 - 8 * (level & 7);
+        bool second = level >= 8;
+        Span<int> head = stackalloc int[257];
+        Span<int> start = stackalloc int[257];
+        head.Clear();
+        // the digits' range: keys of a few scripts use few byte values, so the loops below skip the rest
+        int lowest = 255, highest = 0;
+        for (int i = 0; i < n; i++)
+        {
+            int d = Digit(a[i], second, shift);
+            head[d]++;
+            lowest = Math.Min(lowest, d);
+            highest = Math.Max(highest, d);
+        }
+        // every key has the same byte here: on to the next byte without moving anything
+        if (lowest == highest)
+        {
+            if (lowest == 0) byKey.Sort(a, 0, n - 1);
+            else RadixThenSort(byKey, a, n, level + 1, parallel);
+            return;
+        }
+        start[..(lowest + 1)].Clear();
+        for (int d = lowest, sum = 0; d <= highest; d++) { start[d] = sum; sum += head[d]; }
+        start[(highest + 1)..].Fill(n);
+        start.CopyTo(head);
+        for (int d = lowest; d <= highest; d++)
         {
             int end = start[d + 1];
             while (head[d] < end)
             {
                 var v = a[head[d]];
-                int digit = (int)(v.A >> shift) & 255;
+                int digit = Digit(v, second, shift);
                 while (digit != d)
                 {
                     (v, a[head[digit]]) = (a[head[digit]], v);
                     head[digit]++;
-                    digit = (int)(v.A >> shift) & 255;
+                    digit = Digit(v, second, shift);
                 }
                 a[head[d]++] = v;
             }
         }
-        nint p = (nint)a;
-        void Bucket(int d)
+        if (start[1] > 1) byKey.Sort(a, 0, start[1] - 1);
+        if (parallel && n >= 1 << 15)
+        {
+            var bounds = start.ToArray();
+            nint p = (nint)a;
+            Parallel.For(1, 256, d =>
+            {
+                int size = bounds[d + 1] - bounds[d];
+                if (size > 1) RadixThenSort(byKey, (SortKey*)p + bounds[d], size, level + 1, false);
+            });
+            return;
+        }
+        for (int d = Math.Max(1, lowest); d <= highest; d++)
         {
             int size = start[d + 1] - start[d];
-            if (size > 1) RadixThenSort(byKey, (SortKey*)p + start[d], size, shift - 8, false);
+            if (size > 1) RadixThenSort(byKey, a + start[d], size, level + 1, false);
         }
-        if (parallel && n >= 1 << 15) Parallel.For(0, 256, Bucket);
-        else for (int d = 0; d < 256; d++) Bucket(d);
     }
+
+    /// <summary>Buckets below this size are sorted by comparison rather than by another byte.</summary>
+    private const int RadixMin = 64;
+
+    [System.Runtime.CompilerServices.MethodImpl(System.Runtime.CompilerServices.MethodImplOptions.AggressiveInlining)]
+    private static int Digit(in SortKey k, bool second, int shift) => (int)((second ? k.B : k.A) >> shift) & 255;
 
     /// <summary>
     /// Frees the slots of a table whose counting is over (counts are copied into the entries first): entries and keys

@@ -78,14 +78,10 @@ internal sealed unsafe partial class TokenTable : IDisposable
         _page = null;
     }
 
-    private static Slot* NewSlots(int n)
-    {
-        var p = (Slot*)NativeBlock.Alloc((long)n * sizeof(Slot));
-        // Write every page before probing it: a fresh page that is read first maps the shared zero page, and the
-        // later write then costs a copy-on-write fault with a TLB flush on every core.
-        new Span<Slot>(p, n).Clear();
-        return p;
-    }
+    private static Slot* NewSlots(int n) =>
+        // every page mapped for writing before it is probed: a fresh page that is read first maps the shared zero page,
+        // and the later write then costs a copy-on-write fault with a TLB flush on every core
+        (Slot*)NativeBlock.AllocWritten((long)n * sizeof(Slot));
 
     private void FreeAll()
     {
@@ -338,7 +334,14 @@ internal sealed unsafe partial class TokenTable : IDisposable
             // spill before growth: under a limit the table fills to 3/4 and waits for its owner to spill it
             if (GrowthPeakBytes > GrowthLimit && (long)_count * 4 < 3L * _slotCount) OverLimit = true;
             else if (GrowthGate is null) Rehash();
-            else lock (GrowthGate) Rehash();
+            else if (Monitor.TryEnter(GrowthGate))
+            {
+                try { Rehash(); }
+                finally { Monitor.Exit(GrowthGate); }
+            }
+            // another table is growing: this one fills further (up to 3/4) and tries again at its next new key,
+            // rather than holding its partition's lock while it waits
+            else if ((long)_count * 4 >= 3L * _slotCount) lock (GrowthGate) Rehash();
         }
     }
 

@@ -25,8 +25,8 @@ public static class ContrastTables
         {
             var columns = new List<FlatColumn> { new("group", FlatType.String), new("token", FlatType.String, Nullable: true) };
             if (hasIds) columns.Add(new("token_id", FlatType.Int32));
-            columns.Add(new("count", FlatType.Int64));
-            columns.Add(new("rank", FlatType.Int64));
+            columns.Add(new("count", FlatType.Int64, Delta: true));
+            columns.Add(new("rank", FlatType.Int64, Delta: true));
             var footer = meta.ToFooter();
             footer["rankfreq.group_key"] = groupKey;
             using var w = new FlatParquetWriter(stream, columns) { Metadata = footer, CreatedBy = $"rankfreq {meta.ToolVersion}" };
@@ -34,7 +34,7 @@ public static class ContrastTables
                 foreach (var b in RowGroups.Of(g.Rows.Batches()))
                 {
                     ct.ThrowIfCancellationRequested();
-                    var data = new List<Array> { Enumerable.Repeat<string?>(g.Group, b.Counts.Length).ToArray() };
+                    var data = new List<object> { Enumerable.Repeat<string?>(g.Group, b.Counts.Length).ToArray() };
                     data.AddRange(CountTableFile.BatchColumns(b, hasIds, meta.RedactedBelow));
                     w.WriteRowGroup(b.Counts.Length, data);
                 }

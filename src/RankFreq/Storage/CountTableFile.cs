@@ -21,8 +21,8 @@ public static class CountTableFile
         {
             var columns = new List<FlatColumn> { new("token", FlatType.String, Nullable: true) };
             if (hasIds) columns.Add(new("token_id", FlatType.Int32));
-            columns.Add(new("count", FlatType.Int64));
-            columns.Add(new("rank", FlatType.Int64));
+            columns.Add(new("count", FlatType.Int64, Delta: true));
+            columns.Add(new("rank", FlatType.Int64, Delta: true));
             using var w = new FlatParquetWriter(stream, columns) { Metadata = meta.ToFooter(), CreatedBy = $"rankfreq {meta.ToolVersion}" };
             foreach (var b in RowGroups.Of(rows.Batches()))
             {
@@ -34,17 +34,32 @@ public static class CountTableFile
         });
 
     /// <summary>The token (redacted below <paramref name="redactBelow"/>), token_id, count and rank columns of a batch.</summary>
-    internal static List<Array> BatchColumns(CountRowBatch b, bool hasIds, long redactBelow)
+    internal static List<object> BatchColumns(CountRowBatch b, bool hasIds, long redactBelow)
     {
-        var tokens = b.Tokens;
-        if (redactBelow > 1)
+        object tokens;
+        if (b.Utf8 is { } utf8)
         {
-            tokens = (string?[])tokens.Clone();
-            for (int i = 0; i < tokens.Length; i++) if (b.Counts[i] < redactBelow) tokens[i] = null;
+            bool[]? isNull = null;
+            if (redactBelow > 1)
+            {
+                isNull = new bool[b.Counts.Length];
+                for (int i = 0; i < isNull.Length; i++) isNull[i] = b.Counts[i] < redactBelow;
+            }
+            tokens = new Utf8Values(utf8, isNull);
+        }
+        else
+        {
+            var strings = b.Tokens;
+            if (redactBelow > 1)
+            {
+                strings = (string?[])strings.Clone();
+                for (int i = 0; i < strings.Length; i++) if (b.Counts[i] < redactBelow) strings[i] = null;
+            }
+            tokens = strings;
         }
         var ranks = new long[b.Counts.Length];
         for (int i = 0; i < ranks.Length; i++) ranks[i] = b.FirstRank + i;
-        var data = new List<Array> { tokens };
+        var data = new List<object> { tokens };
         if (hasIds) data.Add(b.TokenIds ?? throw new InvalidOperationException("ids missing"));
         data.Add(b.Counts);
         data.Add(ranks);

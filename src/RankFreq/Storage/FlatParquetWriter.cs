@@ -23,7 +23,6 @@ internal sealed class FlatParquetWriter : IDisposable
     private readonly List<RowGroupMeta> _groups = [];
     private long _pos;
     private long _rows;
-    private readonly List<PageSlot> _slots = [];
 
     /// <summary>One page's buffers and compressor: the pages of a row group are encoded and compressed in parallel.</summary>
     private sealed class PageSlot : IDisposable
@@ -51,54 +50,80 @@ internal sealed class FlatParquetWriter : IDisposable
     /// <summary>The writer name recorded in the footer.</summary>
     public string CreatedBy { get; init; } = "rankfreq";
 
-    /// <summary>Writes one row group; <paramref name="data"/> holds, per column, a <c>string?[]</c>, <c>int[]</c> or
-    /// <c>long[]</c> of <paramref name="rows"/> values.</summary>
-    public void WriteRowGroup(int rows, IReadOnlyList<Array> data)
+    /// <summary>Row groups handed over and not yet written: their pages and the tasks encoding them.</summary>
+    private readonly Queue<(int Rows, int PerColumn, PageSlot[] Slots, Task Work)> _inFlight = new();
+    private readonly Stack<PageSlot> _free = new();
+
+    /// <summary>Row groups encoded at once: enough that no core waits for the slowest page of one group.</summary>
+    private static readonly int MaxInFlight = Math.Max(2, Environment.ProcessorCount + 2);
+
+    /// <summary>
+    /// Hands over one row group; <paramref name="data"/> holds, per column, a <c>string?[]</c> or
+    /// <see cref="Utf8Values"/> (string columns), <c>int[]</c> or <c>long[]</c> of <paramref name="rows"/> values, which
+    /// must not change until <see cref="Finish"/>. Pages are encoded and compressed on all cores, several row groups
+    /// at a time, and written in order (the same bytes as one page after another).
+    /// </summary>
+    public void WriteRowGroup(int rows, IReadOnlyList<object> data)
     {
         if (data.Count != _columns.Count) throw new ArgumentException("one array per column");
         if (rows == 0) return;
-        // pages are independent: encoded and compressed on all cores, then written in column order (same bytes)
         int perColumn = (rows + RowsPerPage - 1) / RowsPerPage;
-        int pages = _columns.Count * perColumn;
-        while (_slots.Count < pages) _slots.Add(new PageSlot());
+        var slots = new PageSlot[_columns.Count * perColumn];
+        for (int j = 0; j < slots.Length; j++) slots[j] = _free.TryPop(out var s) ? s : new PageSlot();
+        var columns = _columns;
         void Encode(int j)
         {
-            var col = _columns[j / perColumn];
+            var col = columns[j / perColumn];
             int start = j % perColumn * RowsPerPage, n = Math.Min(RowsPerPage, rows - start);
-            var slot = _slots[j];
+            var slot = slots[j];
             var values = data[j / perColumn];
             slot.Len = col.Type switch
             {
+                FlatType.String when values is Utf8Values u => EncodeUtf8(ref slot.Page, u, start, n, col.Nullable),
                 FlatType.String => EncodeStrings(ref slot.Page, (string?[])values, start, n, col.Nullable),
                 FlatType.Int32 => EncodeFixed(ref slot.Page, (int[])values, start, n),
+                FlatType.Int64 when col.Delta => DeltaBinaryPacked.Encode(ref slot.Page, ((long[])values).AsSpan(start, n)),
                 _ => EncodeFixed(ref slot.Page, (long[])values, start, n),
             };
             Ensure(ref slot.Packed, Compressor.GetCompressBound(slot.Len));
             slot.Compressed = slot.Zstd.Wrap(slot.Page.AsSpan(0, slot.Len), slot.Packed);
         }
-        if (pages > 1 && Environment.ProcessorCount > 1)
+        var work = new Task[slots.Length];
+        for (int j = 0; j < slots.Length; j++)
         {
-            try { Parallel.For(0, pages, Encode); }
-            catch (AggregateException ae) when (ae.InnerExceptions.Count > 0)
-            {
-                System.Runtime.ExceptionServices.ExceptionDispatchInfo.Capture(ae.InnerExceptions[0]).Throw();
-            }
+            int page = j;
+            work[j] = Task.Run(() => Encode(page));
         }
-        else for (int j = 0; j < pages; j++) Encode(j);
-        var chunks = new List<ChunkMeta>(_columns.Count);
-        for (int c = 0; c < _columns.Count; c++)
+        _inFlight.Enqueue((rows, perColumn, slots, Task.WhenAll(work)));
+        while (_inFlight.Count >= MaxInFlight) WriteOldest();
+    }
+
+    /// <summary>Waits for the oldest row group handed over and writes its pages, column by column.</summary>
+    private void WriteOldest()
+    {
+        var (rows, perColumn, slots, work) = _inFlight.Dequeue();
+        try
         {
-            long offset = _pos, unc = 0, comp = 0;
-            for (int p = 0; p < perColumn; p++)
+            work.GetAwaiter().GetResult(); // an encoding failure surfaces here, as itself
+            var chunks = new List<ChunkMeta>(_columns.Count);
+            for (int c = 0; c < _columns.Count; c++)
             {
-                var (u, z) = WritePage(_slots[c * perColumn + p], Math.Min(RowsPerPage, rows - p * RowsPerPage));
-                unc += u;
-                comp += z;
+                long offset = _pos, unc = 0, comp = 0;
+                for (int p = 0; p < perColumn; p++)
+                {
+                    var (u, z) = WritePage(slots[c * perColumn + p], Math.Min(RowsPerPage, rows - p * RowsPerPage), _columns[c]);
+                    unc += u;
+                    comp += z;
+                }
+                chunks.Add(new ChunkMeta(offset, rows, unc, comp));
             }
-            chunks.Add(new ChunkMeta(offset, rows, unc, comp));
+            _groups.Add(new RowGroupMeta(rows, chunks));
+            _rows += rows;
         }
-        _groups.Add(new RowGroupMeta(rows, chunks));
-        _rows += rows;
+        finally
+        {
+            foreach (var slot in slots) _free.Push(slot);
+        }
     }
 
     private static int EncodeFixed<T>(ref byte[] page, T[] values, int start, int n) where T : unmanaged
@@ -147,7 +172,45 @@ internal sealed class FlatParquetWriter : IDisposable
         return pos;
     }
 
-    private (long Uncompressed, long Compressed) WritePage(PageSlot slot, int values)
+    /// <summary>A page of a string column given as UTF-8 (PLAIN: each value's length, then its bytes).</summary>
+    private static int EncodeUtf8(ref byte[] page, Utf8Values values, int start, int n, bool nullable)
+    {
+        var t = values.Tokens;
+        var isNull = values.IsNull;
+        int pos = 0;
+        if (nullable)
+        {
+            Ensure(ref page, 4 + 6 * n + 16);
+            pos = 4;
+            int i = 0;
+            while (i < n)
+            {
+                bool present = isNull is null || !isNull[start + i];
+                int run = 1;
+                while (i + run < n && (isNull is null || !isNull[start + i + run]) == present) run++;
+                pos = WriteUVarint(page, pos, (ulong)run << 1);
+                page[pos++] = present ? (byte)1 : (byte)0;
+                i += run;
+            }
+            BinaryPrimitives.WriteInt32LittleEndian(page, pos - 4);
+        }
+        else if (isNull is not null && Array.IndexOf(isNull, true, start, n) >= 0)
+            throw new InvalidOperationException("null in a required column");
+        var starts = t.Starts;
+        Ensure(ref page, pos + 4 * n + (starts[start + n] - starts[start]));
+        var bytes = t.Bytes;
+        for (int i = start; i < start + n; i++)
+        {
+            if (isNull is not null && isNull[i]) continue;
+            int from = starts[i], len = starts[i + 1] - from;
+            BinaryPrimitives.WriteInt32LittleEndian(page.AsSpan(pos), len);
+            Buffer.BlockCopy(bytes, from, page, pos + 4, len);
+            pos += 4 + len;
+        }
+        return pos;
+    }
+
+    private (long Uncompressed, long Compressed) WritePage(PageSlot slot, int values, FlatColumn column)
     {
         int len = slot.Len, z = slot.Compressed;
         var h = new ThriftCompactWriter();
@@ -156,7 +219,7 @@ internal sealed class FlatParquetWriter : IDisposable
         h.I32(3, z);            // compressed_page_size
         h.BeginStruct(5);       // data_page_header
         h.I32(1, values);       // num_values
-        h.I32(2, 0);            // encoding: PLAIN
+        h.I32(2, ValueEncoding(column)); // encoding: PLAIN or DELTA_BINARY_PACKED
         h.I32(3, 3);            // definition_level_encoding: RLE
         h.I32(4, 3);            // repetition_level_encoding: RLE
         h.EndStruct();
@@ -167,9 +230,13 @@ internal sealed class FlatParquetWriter : IDisposable
         return (header.Length + len, header.Length + z);
     }
 
+    /// <summary>The values' encoding: DELTA_BINARY_PACKED (5) for a delta column, else PLAIN (0).</summary>
+    private static int ValueEncoding(FlatColumn c) => c.Delta && c.Type == FlatType.Int64 ? 5 : 0;
+
     /// <summary>Writes the footer (FileMetaData, its length, the magic). Call once, after the last row group.</summary>
     public void Finish()
     {
+        while (_inFlight.Count > 0) WriteOldest();
         var m = new ThriftCompactWriter();
         m.I32(1, 1);                                         // version
         m.BeginList(2, ThriftCompactWriter.Struct, _columns.Count + 1); // schema
@@ -209,8 +276,8 @@ internal sealed class FlatParquetWriter : IDisposable
                 m.I64(2, ch.Offset);                         // file_offset
                 m.BeginStruct(3);                            // meta_data
                 m.I32(1, (int)_columns[c].Type);
-                m.BeginList(2, ThriftCompactWriter.I32Type, 2); // encodings: PLAIN, RLE
-                m.ListI32(0);
+                m.BeginList(2, ThriftCompactWriter.I32Type, 2); // encodings: PLAIN or DELTA_BINARY_PACKED, RLE
+                m.ListI32(ValueEncoding(_columns[c]));
                 m.ListI32(3);
                 m.BeginList(3, ThriftCompactWriter.Binary, 1);  // path_in_schema
                 m.ListString(_columns[c].Name);
@@ -278,6 +345,14 @@ internal sealed class FlatParquetWriter : IDisposable
 
     public void Dispose()
     {
-        foreach (var slot in _slots) slot.Dispose();
+        // row groups still being encoded (a failure or cancellation before Finish): their compressors are in use
+        foreach (var (_, _, slots, work) in _inFlight)
+        {
+            try { work.Wait(); }
+            catch (AggregateException) { } // the failure that matters has left through WriteRowGroup or Finish
+            foreach (var slot in slots) slot.Dispose();
+        }
+        _inFlight.Clear();
+        foreach (var slot in _free) slot.Dispose();
     }
 }

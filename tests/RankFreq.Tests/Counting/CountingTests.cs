@@ -129,6 +129,42 @@ public class CountingTests
         Assert.Equal(byKey, t.IndicesByKey());
     }
 
+    [Theory]
+    [InlineData(false)]
+    [InlineData(true)]
+    public void RankSortByCountBucketsAndKeyBytesMatchesAPlainOrdinalSort(bool parallel)
+    {
+        // The rank sort places each count bucket by key bytes, one byte at a time, before comparing: buckets large
+        // enough to go through all sixteen packed bytes (and, in parallel, split across threads), keys sharing 16-byte
+        // prefixes, ending in or holding zero bytes, and longer than the packed form.
+        var rng = new Random(12);
+        var t = new TokenTable();
+        var prefix = "abcdefghijklmnop"u8.ToArray();
+        var seen = new HashSet<string>();
+        var keys = new List<byte[]>();
+        var counts = new List<long>();
+        while (keys.Count < 90_000)
+        {
+            int len = rng.Next(1, 30);
+            var k = new byte[len];
+            for (int j = 0; j < len; j++) k[j] = (byte)(rng.Next(8) == 0 ? 0 : rng.Next(97, 101));
+            if (rng.Next(3) == 0) prefix.AsSpan(0, Math.Min(16, len)).CopyTo(k);
+            if (!seen.Add(Convert.ToHexString(k))) continue;
+            long c = rng.Next(10) == 0 ? rng.Next(2, 70_000) : 1;
+            t.Add(k, c, 0);
+            keys.Add(k);
+            counts.Add(c);
+        }
+        var cmp = Comparer<byte[]>.Create((a, b) => a.AsSpan().SequenceCompareTo(b));
+        var expected = Enumerable.Range(0, keys.Count).OrderByDescending(i => counts[i]).ThenBy(i => keys[i], cmp)
+            .Select(i => (counts[i], Convert.ToHexString(keys[i]))).ToList();
+        using var sorted = t.SortedByRank(parallel);
+        var buffer = new byte[16];
+        var got = Enumerable.Range(0, sorted.Length)
+            .Select(r => (sorted.CountAt(r), Convert.ToHexString(sorted.KeyAt(r, buffer)))).ToList();
+        Assert.Equal(expected, got);
+    }
+
     [Fact]
     public void ManyRunsMergeInBoundedFanInAndLeaveNoIntermediateFiles()
     {
