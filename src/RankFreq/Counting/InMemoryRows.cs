@@ -1,3 +1,4 @@
+using RankFreq.Primitives;
 using RankFreq.Sources;
 
 namespace RankFreq.Counting;
@@ -70,12 +71,12 @@ public sealed class InMemoryRows : ICountRows
 
     /// <summary>
     /// Rows <paramref name="rows"/> long in rank order, their tokens written by <paramref name="key"/> into UTF-8
-    /// chunks on all cores (<paramref name="key"/> must be safe to call from several threads).
+    /// chunks on the run's cores (<see cref="CoreLimit"/>) (<paramref name="key"/> must be safe to call from several threads).
     /// </summary>
     internal static Utf8Tokens[] MakeChunks(int rows, Utf8Tokens.KeyOf key)
     {
         var chunks = new Utf8Tokens[(rows + ChunkRows - 1) / ChunkRows];
-        Parallel.For(0, chunks.Length, c =>
+        Parallel.For(0, chunks.Length, CoreLimit.Options, c =>
         {
             int start = c * ChunkRows;
             chunks[c] = Utf8Tokens.Build(Math.Min(ChunkRows, rows - start), (i, scratch) => key(start + i, scratch));

@@ -1,3 +1,4 @@
+using RankFreq.Primitives;
 using System.Buffers.Binary;
 
 namespace RankFreq.Counting;
@@ -32,7 +33,7 @@ internal static unsafe class SortedMerge
         long placedBytes = 0;
         try
         {
-            Parallel.For(0, tables.Count, i =>
+            Parallel.For(0, tables.Count, CoreLimit.Options, i =>
             {
                 tables[i].FreeSlots(); // probing is over; the slots are most of a table's memory
                 parts[i] = tables[i].Sorted(byCount: false);
@@ -104,7 +105,7 @@ internal static unsafe class SortedMerge
         long placedBytes = 0;
         try
         {
-            Parallel.For(0, k, i =>
+            Parallel.For(0, k, CoreLimit.Options, i =>
             {
                 tables[i].FreeSlots();
                 var sorted = parts[i] = tables[i].SortedByRank(parallel: false);
@@ -124,7 +125,7 @@ internal static unsafe class SortedMerge
             placed = (Row*)NativeBlock.Alloc(placedBytes);
             // the rank-ordered streams merged in segments side by side: segment s starts at the part-0 type
             // s/segments of the way along and, in every other part, at the first type that does not rank before it
-            int segments = rows < 1 << 16 ? 1 : Math.Clamp(Environment.ProcessorCount, 1, 16);
+            int segments = rows < 1 << 16 ? 1 : Math.Clamp(CoreLimit.Cores, 1, 16);
             var cut = new int[segments + 1][];
             for (int sg = 0; sg <= segments; sg++)
             {
@@ -139,7 +140,7 @@ internal static unsafe class SortedMerge
             }
             nint placedAt = (nint)placed;
             var ps = parts;
-            Parallel.For(0, segments, sg =>
+            Parallel.For(0, segments, CoreLimit.Options, sg =>
             {
                 var pos = (int[])cut[sg].Clone();
                 var end = cut[sg + 1];

@@ -156,7 +156,7 @@ internal sealed unsafe partial class TokenTable
         {
             var bounds = start.ToArray();
             nint p = (nint)a;
-            Parallel.For(1, 256, d =>
+            Parallel.For(1, 256, CoreLimit.Options, d =>
             {
                 int size = bounds[d + 1] - bounds[d];
                 if (size > 1) RadixThenSort(byKey, (SortKey*)p + bounds[d], size, level + 1, false);

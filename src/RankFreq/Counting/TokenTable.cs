@@ -436,7 +436,7 @@ internal sealed unsafe partial class TokenTable : IDisposable
         public void SortParallel(SortKey* a, int n)
         {
             int hi = n - 1;
-            if (n < 1 << 15 || Environment.ProcessorCount < 2)
+            if (n < 1 << 15 || CoreLimit.Cores < 2)
             {
                 Sort(a, 0, hi);
                 return;

@@ -81,6 +81,7 @@ public static class ContrastJob
     public static GroupedCountResult CountGroups(IReadOnlyList<string> inputs, CountSettings count, GroupKey key,
         IProgress<CountProgress>? progress = null, CancellationToken ct = default)
     {
+        CoreLimit.Set(count.Threads); // ranking and writing keep to --threads too
         var source = (count.Source ?? new SourceOptions()) with { Group = key };
         var tokenizer = TokenizerFactory.Create(count.Tokenizer);
         var (files, skipped) = InputPlanner.Expand(inputs, source);

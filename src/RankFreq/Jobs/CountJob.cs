@@ -23,6 +23,7 @@ public static class CountJob
     public static CountResult Count(IReadOnlyList<string> inputs, CountSettings settings,
         IProgress<CountProgress>? progress = null, CancellationToken ct = default)
     {
+        CoreLimit.Set(settings.Threads); // ranking and writing keep to --threads too
         var tokenizer = TokenizerFactory.Create(settings.Tokenizer);
         var (files, skipped) = InputPlanner.Expand(inputs, settings.Source ?? new SourceOptions());
         return CountEngine.Count(tokenizer, Shard(files, settings), skipped, settings, progress, ct);

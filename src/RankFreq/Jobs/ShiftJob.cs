@@ -1,3 +1,4 @@
+using RankFreq.Primitives;
 using System.Diagnostics;
 using System.Runtime.ExceptionServices;
 using RankFreq.Comparison;
@@ -38,6 +39,7 @@ public static class ShiftJob
     public static async Task<ShiftJobResult> RunAsync(IReadOnlyList<string> inputs, ShiftSettings s,
         IProgress<CountProgress>? progress = null, CancellationToken ct = default)
     {
+        CoreLimit.Set(s.Count.Threads); // ranking and writing keep to --threads too
         var source = s.Count.Source ?? new();
         if (s.OutputDirectory is not null) source = source.Skipping(s.OutputDirectory);
         if (s.Key is not null) source = source with { Group = s.Key };

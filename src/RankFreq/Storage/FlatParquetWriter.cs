@@ -1,3 +1,4 @@
+using RankFreq.Primitives;
 using System.Buffers.Binary;
 using System.Text;
 using ZstdSharp;
@@ -55,12 +56,15 @@ internal sealed class FlatParquetWriter : IDisposable
     private readonly Stack<PageSlot> _free = new();
 
     /// <summary>Row groups encoded at once: enough that no core waits for the slowest page of one group.</summary>
-    private static readonly int MaxInFlight = Math.Max(2, Environment.ProcessorCount + 2);
+    private readonly int _maxInFlight = Math.Max(2, CoreLimit.Cores + 2);
+
+    /// <summary>A run limited to one core encodes pages on the calling thread (<see cref="CoreLimit"/>).</summary>
+    private readonly bool _inline = CoreLimit.Cores < 2;
 
     /// <summary>
     /// Hands over one row group; <paramref name="data"/> holds, per column, a <c>string?[]</c> or
     /// <see cref="Utf8Values"/> (string columns), <c>int[]</c> or <c>long[]</c> of <paramref name="rows"/> values, which
-    /// must not change until <see cref="Finish"/>. Pages are encoded and compressed on all cores, several row groups
+    /// must not change until <see cref="Finish"/>. Pages are encoded and compressed on the run's cores (<see cref="CoreLimit"/>), several row groups
     /// at a time, and written in order (the same bytes as one page after another).
     /// </summary>
     public void WriteRowGroup(int rows, IReadOnlyList<object> data)
@@ -92,10 +96,11 @@ internal sealed class FlatParquetWriter : IDisposable
         for (int j = 0; j < slots.Length; j++)
         {
             int page = j;
-            work[j] = Task.Run(() => Encode(page));
+            if (_inline) { Encode(page); work[j] = Task.CompletedTask; }
+            else work[j] = Task.Run(() => Encode(page));
         }
         _inFlight.Enqueue((rows, perColumn, slots, Task.WhenAll(work)));
-        while (_inFlight.Count >= MaxInFlight) WriteOldest();
+        while (_inFlight.Count >= _maxInFlight) WriteOldest();
     }
 
     /// <summary>Waits for the oldest row group handed over and writes its pages, column by column.</summary>

@@ -209,7 +209,8 @@ public class CountingTests
         var rng = new Random(7);
         var words = Enumerable.Range(0, 400).Select(i => "w" + i).ToArray();
         for (int f = 0; f < 6; f++)
-            File.WriteAllText(d[$"in{f}.txt"], string.Join(' ', Enumerable.Range(0, 3000).Select(_ => words[(int)Math.Floor(Math.Pow(rng.NextDouble(), 3) * 400)])));
+            File.WriteAllText(d[$"in{f}.txt"], string.Join(' ', Enumerable.Range(0, 3000)
+                .Select(_ => words[(int)Math.Floor(Math.Pow(rng.NextDouble(), 3) * 400)])));
         var inputs = Enumerable.Range(0, 6).Select(f => d[$"in{f}.txt"]).ToArray();
         async Task<string> CountTo(string name, int k = 0, int n = 0, params string[] files)
         {
