@@ -37,7 +37,10 @@ internal static class AlternativesProfile
         var nt = Newton2.Minimize((e, k) => Alternatives.LognormalNllNatural(tail, e, k), mu0 * 2 * k0, k0, 0.5e-6);
         Console.WriteLine(nt is { } r ? $"lognormal Newton: {r.Iterations} iterations, μ {r.X0 / (2 * r.X1):R}, σ {Math.Sqrt(0.5 / r.X1):R}, "
             + $"z {Alternatives.LognormalCurvatureZ(tail, Math.Sqrt(0.5 / r.X1)):G3}" : "lognormal Newton: no convergence");
-        var nw = Newton2.Minimize((w, v) => Alternatives.WeibullNllSlope(tv, tm, pl.Xmin, w, v), -0.5 * Math.Log(mean) + Math.Log(0.5), Math.Log(0.5), Math.Log(1e-4), 1e-12);
-        Console.WriteLine(nw is { } w ? $"Weibull Newton: {w.Iterations} iterations, λ {Math.Exp(w.X0 - w.X1):R}, β {Math.Exp(w.X1):R}" : "Weibull Newton: no convergence");
+        var nw = Newton2.Minimize((w, v) => Alternatives.WeibullNllSlope(tv, tm, pl.Xmin, w, v),
+            -0.5 * Math.Log(mean) + Math.Log(0.5), Math.Log(0.5), Math.Log(1e-4), 1e-12);
+        Console.WriteLine(nw is { } w
+            ? $"Weibull Newton: {w.Iterations} iterations, λ {Math.Exp(w.X0 - w.X1):R}, β {Math.Exp(w.X1):R}"
+            : "Weibull Newton: no convergence");
     }
 }

@@ -39,8 +39,10 @@ internal static class ReplicateTiming
                 var t4 = Cpu();
                 gen += t1 - t0; search += t2 - t1; cgen += t3 - t2; csearch += t4 - t3;
             }
-            Console.WriteLine($"round {round}: per replicate (CPU ms) goodness of fit: draw {gen.TotalMilliseconds / reps:F2}, search {search.TotalMilliseconds / reps:F2} "
-                + $"({distinct / reps:N0} distinct values); uncertainty: draw {cgen.TotalMilliseconds / reps:F2}, search {csearch.TotalMilliseconds / reps:F2}");
+            Console.WriteLine($"round {round}: per replicate (CPU ms) goodness of fit: "
+                + $"draw {gen.TotalMilliseconds / reps:F2}, search {search.TotalMilliseconds / reps:F2} "
+                + $"({distinct / reps:N0} distinct values); "
+                + $"uncertainty: draw {cgen.TotalMilliseconds / reps:F2}, search {csearch.TotalMilliseconds / reps:F2}");
         }
     }
 

@@ -25,13 +25,15 @@ for r in $(seq "$rounds"); do
   a=$(t "$nat" count "$corpus" -o "$work/c.parquet" -q --threads 2)
   a2=$(t "$rf" count "$corpus" -o "$work/c.parquet" -q --threads 2)
   b=$(t awk '{ for (i = 1; i <= NF; i++) c[$i]++ } END { for (k in c) print c[k], k }' "$corpus")
-  c=$(t awk '{ $0 = tolower($0); n = split($0, w, /[^a-z0-9]+/); for (i = 1; i <= n; i++) if (w[i] != "") c[w[i]]++ } END { for (k in c) print c[k], k }' "$corpus")
+  c=$(t awk '{ $0 = tolower($0); n = split($0, w, /[^a-z0-9]+/); for (i = 1; i <= n; i++) if (w[i] != "") c[w[i]]++ }
+       END { for (k in c) print c[k], k }' "$corpus")
   d=$(t sh -c "tr -cs 'A-Za-z0-9' '\n' < '$corpus' | tr 'A-Z' 'a-z' | sort | uniq -c")
   printf '%-6s %8.2f %8.2f %11.2f %10.2f %13.2f %7s %7s %7s\n' "$r" "$a" "$a2" "$b" "$c" "$d" "$(ratio "$b" "$a")" "$(ratio "$c" "$a")" "$(ratio "$d" "$a")"
   A="$A $a"; A2="$A2 $a2"; B="$B $b"; C="$C $c"; D="$D $d"
 done
 ma=$(echo "$A" | med); mb=$(echo "$B" | med); mc=$(echo "$C" | med); md=$(echo "$D" | med)
-printf '%-6s %8.2f %8.2f %11.2f %10.2f %13.2f %7s %7s %7s\n' median "$ma" "$(echo "$A2" | med)" "$mb" "$mc" "$md" "$(ratio "$mb" "$ma")" "$(ratio "$mc" "$ma")" "$(ratio "$md" "$ma")"
+printf '%-6s %8.2f %8.2f %11.2f %10.2f %13.2f %7s %7s %7s\n' median "$ma" "$(echo "$A2" | med)" "$mb" "$mc" "$md" \
+  "$(ratio "$mb" "$ma")" "$(ratio "$mc" "$ma")" "$(ratio "$md" "$ma")"
 echo "peak RSS: native $(/usr/bin/time -f %M "$nat" count "$corpus" -o "$work/c.parquet" -q --threads 2 2>&1 >/dev/null | tail -1) KiB," \
      "r2r $(/usr/bin/time -f %M "$rf" count "$corpus" -o "$work/c.parquet" -q --threads 2 2>&1 >/dev/null | tail -1) KiB"
 for r in $(seq "$rounds"); do

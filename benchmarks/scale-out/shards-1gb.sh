@@ -36,7 +36,8 @@ ls -l "$work"/shards/*.parquet | awk '{ s += $5 } END { print "shard tables: " s
 step rankfreq-merge "$rf" merge "$work"/shards/shard-*.parquet --memory "$mem" -q -o "$work/merged.parquet"
 DUCKDB_THREADS=2 DUCKDB_MEMORY=$mem DUCKDB_TEMP="$work/duck-tmp" step duckdb-merge "${duck[@]}" merge "$work/duck-table.parquet" "$work"/shards/shard-*.parquet
 DUCKDB_THREADS=2 step duckdb-spectrum "${duck[@]}" spectrum "$work/duck-spectrum.parquet" "$work/duck-table.parquet"
-DUCKDB_THREADS=2 DUCKDB_MEMORY=$mem DUCKDB_TEMP="$work/duck-tmp" step duckdb-spectrum-direct "${duck[@]}" spectrum-direct "$work/duck-direct.parquet" "$work"/shards/shard-*.parquet
+DUCKDB_THREADS=2 DUCKDB_MEMORY=$mem DUCKDB_TEMP="$work/duck-tmp" step duckdb-spectrum-direct "${duck[@]}" \
+  spectrum-direct "$work/duck-direct.parquet" "$work"/shards/shard-*.parquet
 ls -l "$work/merged.parquet" "$work/duck-table.parquet" "$work/duck-spectrum.parquet" "$work/duck-direct.parquet" | awk '{ print $5, $9 }'
 # fit's figures that must agree; each fit is also timed (the spectrum is kilobytes, the tables are not)
 fit() { step "$1" "$rf" fit "$2" --reps 200 --ci-reps 0 --alternatives none --seed 7 --threads 2 --json >&2

@@ -76,7 +76,8 @@ public class CliTests
         var (code, o, e) = Cli.Run("fit", d["s.txt"], "--reps", "50", "--ci-reps", "30", "--json", "-o", d["fit.parquet"]);
         Assert.True(code == 0, e);
         using var j = JsonDocument.Parse(o);
-        foreach (var k in new[] { "alpha", "alpha_se", "alpha_lo", "alpha_hi", "xmin", "xmin_lo", "xmin_hi", "n_tail", "n_types", "ks_distance", "gof_p", "gof_reps", "zipf_s", "zipf_s_se", "lsq_slope", "seed", "alternatives" })
+        foreach (var k in new[] { "alpha", "alpha_se", "alpha_lo", "alpha_hi", "xmin", "xmin_lo", "xmin_hi", "n_tail",
+            "n_types", "ks_distance", "gof_p", "gof_reps", "zipf_s", "zipf_s_se", "lsq_slope", "seed", "alternatives" })
             Assert.True(j.RootElement.TryGetProperty(k, out _), k);
         Assert.InRange(j.RootElement.GetProperty("alpha").GetDouble(), 1.8, 2.4);
         Assert.True(File.Exists(d["fit.parquet"]) && File.Exists(d["fit.alternatives.parquet"]));
@@ -87,7 +88,8 @@ public class CliTests
     {
         var (code, o, _) = Cli.Run("tokenizers");
         Assert.Equal(0, code);
-        foreach (var s in new[] { "words", "words:keep-case", "whitespace", "chars", "cl100k_base", "o200k_base", "r50k_base", "bpe:", "sentencepiece:", "wordpiece:" })
+        foreach (var s in new[] { "words", "words:keep-case", "whitespace", "chars", "cl100k_base", "o200k_base",
+            "r50k_base", "bpe:", "sentencepiece:", "wordpiece:" })
             Assert.Contains(s, o);
     }
 }

@@ -123,7 +123,8 @@ public class NativeBuildTests
             Directory.CreateDirectory(Path.GetDirectoryName(to)!);
             File.Copy(file, to);
         }
-        var (code, o, e) = Run("dotnet", ["publish", Path.Combine(src, "src", "RankFreq.Cli"), "-c", "Release", "-p:Native=true", "-o", d["native"]], src, TimeSpan.FromMinutes(15));
+        var (code, o, e) = Run("dotnet", ["publish", Path.Combine(src, "src", "RankFreq.Cli"), "-c", "Release",
+            "-p:Native=true", "-o", d["native"]], src, TimeSpan.FromMinutes(15));
         Assert.True(code == 0, $"native publish failed:\n{o}\n{e}");
         return Path.Combine(d["native"], "rankfreq");
     }

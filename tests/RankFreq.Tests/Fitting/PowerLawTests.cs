@@ -80,7 +80,8 @@ public class PowerLawTests
     public void AgreesWithMpmathOptimiserAtFixedXmin()
     {
         // Reference: Data/alpha_reference.py (mpmath 1.3.0, findroot on the score at 30 digits) → Data/alpha-reference.csv
-        var counts = File.ReadAllLines(Path.Combine(AppContext.BaseDirectory, "Data", "alpha-reference-counts.txt")).Where(l => l.Length > 0).Select(long.Parse);
+        var counts = File.ReadAllLines(Path.Combine(AppContext.BaseDirectory, "Data",
+            "alpha-reference-counts.txt")).Where(l => l.Length > 0).Select(long.Parse);
         var s = FrequencySpectrum.FromCounts(counts);
         var search = new TailSearch(s.Values, s.Types, s.Values.Length);
         foreach (var line in File.ReadAllLines(Path.Combine(AppContext.BaseDirectory, "Data", "alpha-reference.csv")).Where(l => !l.StartsWith('#')))

@@ -35,7 +35,13 @@ public class LexicalTests
         var counts = new long[] { 7, 4, 4, 2, 1, 1, 1 };
         var s = FrequencySpectrum.FromCounts(counts);
         long n = counts.Sum();
-        static BigInteger C(long a, long b) { if (b < 0 || b > a) return 0; BigInteger r = 1; for (long i = 0; i < b; i++) r = r * (a - i) / (i + 1); return r; }
+        static BigInteger C(long a, long b)
+        {
+            if (b < 0 || b > a) return 0;
+            BigInteger r = 1;
+            for (long i = 0; i < b; i++) r = r * (a - i) / (i + 1);
+            return r;
+        }
         for (long m = 1; m <= n; m++)
         {
             double exact = counts.Sum(f => 1 - (double)C(n - f, m) / (double)C(n, m));

@@ -18,7 +18,8 @@ public class ProfileTests
         var (code, o, e) = Cli.Run("profile", Corpora.File("sotu.jsonl"), "--text-field", "text", "-o", d["out"], "--reps", "200", "--ci-reps", "100");
         Assert.True(code == 0, e);
         Assert.Contains("report:", o);
-        foreach (var f in new[] { "counts.parquet", "spectrum.parquet", "fit.parquet", "fit.alternatives.parquet", "growth.parquet", "summary.json", "report.html",
+        foreach (var f in new[] { "counts.parquet", "spectrum.parquet", "fit.parquet", "fit.alternatives.parquet",
+            "growth.parquet", "summary.json", "report.html",
                      "rank-frequency.svg", "ccdf.svg", "spectrum.svg", "growth.svg", "forecast.svg", "forecast.parquet" })
             Assert.True(File.Exists(Path.Combine(d["out"], f)), f);
         using var j = JsonDocument.Parse(File.ReadAllText(Path.Combine(d["out"], "summary.json")));
@@ -51,7 +52,8 @@ public class ProfileTests
     {
         using var d = new TempDir();
         var dir = DemoProfile(d);
-        foreach (var (name, label) in new[] { ("rank-frequency", "rank (log scale)"), ("ccdf", "frequency x (log scale)"), ("spectrum", "frequency f (log scale)"), ("growth", "tokens N (log scale)") })
+        foreach (var (name, label) in new[] { ("rank-frequency", "rank (log scale)"), ("ccdf", "frequency x (log scale)"),
+            ("spectrum", "frequency f (log scale)"), ("growth", "tokens N (log scale)") })
         {
             var svg = File.ReadAllText(Path.Combine(dir, name + ".svg"));
             var doc = System.Xml.Linq.XDocument.Parse(svg); // well-formed XML

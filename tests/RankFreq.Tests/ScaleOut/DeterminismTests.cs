@@ -53,7 +53,8 @@ public class DeterminismTests
         Ok(Cli.Run(["merge", .. shards, "-o", d["m2.parquet"], "-q", "--reproducible", "--memory", "1M"]));
         Assert.True(File.ReadAllBytes(d["m1.parquet"]).AsSpan().SequenceEqual(File.ReadAllBytes(d["m2.parquet"])));
         using var con = Open();
-        string a = $"SELECT token, count, rank FROM read_parquet({Q(d["m1.parquet"])})", b = $"SELECT token, count, rank FROM read_parquet({Q(d["t1.parquet"])})";
+        string a = $"SELECT token, count, rank FROM read_parquet({Q(d["m1.parquet"])})",
+            b = $"SELECT token, count, rank FROM read_parquet({Q(d["t1.parquet"])})";
         using var cmd = con.CreateCommand();
         cmd.CommandText = $"SELECT (SELECT COUNT(*) FROM ({a} EXCEPT {b})) + (SELECT COUNT(*) FROM ({b} EXCEPT {a})), (SELECT COUNT(*) FROM ({a}))";
         using var r = cmd.ExecuteReader();

@@ -162,7 +162,8 @@ public class SourceTests
         using (var o = File.Create(path))
         using (var g = new GZipStream(o, CompressionLevel.Fastest))
         using (var w = new StreamWriter(g))
-            for (int i = 0; i < 2500; i++) w.WriteLine("{\"text\":\"" + string.Concat(Enumerable.Repeat("word ", i == 3 ? 40_000 : 1000)) + "\"}"); // ~12 MB: the queue fills
+            for (int i = 0; i < 2500; i++) w.WriteLine("{\"text\":\"" + string.Concat(Enumerable.Repeat("word ",
+                i == 3 ? 40_000 : 1000)) + "\"}"); // ~12 MB: the queue fills
         var run = Task.Run(() => CountJob.Count([path], new CountSettings(Threads: 2,
             Source: new SourceOptions(MaxRecordBytes: 100_000) { ReadAheadAboveBytes = 0 })));
         var finished = await Task.WhenAny(run, Task.Delay(TimeSpan.FromSeconds(60)));

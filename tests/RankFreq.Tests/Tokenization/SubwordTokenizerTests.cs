@@ -134,7 +134,8 @@ public class TiktokenSplitterTests
         int i = 0;
         while (i < Math.Min(expected.Count, got.Count) && expected[i] == got[i]) i++;
         string Show((int o, int l)? c) => c is { } x ? $"'{text.Substring(x.o, x.l)}' at {x.o}" : "none";
-        Assert.Fail($"{encoding}, {what}: chunk {i} differs: regex {Show(i < expected.Count ? expected[i] : null)}, splitter {Show(i < got.Count ? got[i] : null)}");
+        Assert.Fail($"{encoding}, {what}: chunk {i} differs: regex {Show(i < expected.Count ? expected[i] : null)}, "
+            + $"splitter {Show(i < got.Count ? got[i] : null)}");
     }
 
     public static readonly TheoryData<string> Encodings = new() { "o200k_base", "cl100k_base", "r50k_base" };
@@ -169,7 +170,8 @@ public class TiktokenSplitterTests
     public void MatchesTheRegexOnRandomText(string encoding)
     {
         // random strings over pieces that sit on the rules' boundaries
-        string[] pieces = ["a", "Z", "é", "\u0301", "1", "٣", "½", " ", "  ", "\t", "\n", "\r", "'", "s", "LL", "ve", "-", "/", "!", "中", "👋", "\u00A0", "x"];
+        string[] pieces = ["a", "Z", "é", "\u0301", "1", "٣", "½", " ", "  ", "\t", "\n", "\r", "'", "s", "LL", "ve", "-",
+            "/", "!", "中", "👋", "\u00A0", "x"];
         var rng = new Random(17);
         for (int k = 0; k < 400; k++)
         {

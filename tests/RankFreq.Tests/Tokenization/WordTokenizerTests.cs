@@ -89,7 +89,8 @@ public class WordTokenizerTests
         Assert.Equal(WordTokenizer.MaxTokenBytes * 2 + 10, t.Sum(s => s.Length));
     }
 
-    private static readonly string[] Pieces = ["a", "B", "é", "e\u0301", "'", "’", " ", "-", "中", "ß", "1", "\n", "👋", "д", "ש", "ก", "ั", "x", "Z", "don", "t"];
+    private static readonly string[] Pieces = ["a", "B", "é", "e\u0301", "'", "’", " ", "-", "中", "ß", "1", "\n", "👋",
+        "д", "ש", "ก", "ั", "x", "Z", "don", "t"];
 
     /// <summary>Property: splitting the text into blocks at random byte offsets (through the UTF-8 sanitizer) never changes the tokens.</summary>
     [Fact]
