@@ -1,3 +1,4 @@
+using RankFreq.Primitives;
 using System.Buffers;
 using System.Text;
 using System.Text.Json;
@@ -125,6 +126,8 @@ public static class InputReader
         ParquetReader reader;
         try
         {
+            // a damaged footer can send the Parquet decoder into an endless loop: walked first, bounds checked
+            if (ParquetFooterCheck.Problem(fs) is { } problem) throw new InvalidDataException(problem);
             reader = ParquetReader.CreateAsync(fs, cancellationToken: ct).GetAwaiter().GetResult();
             _ = reader.Schema.GetDataFields(); // the schema is decoded when first asked for: a damaged one fails here
         }

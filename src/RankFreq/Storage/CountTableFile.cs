@@ -1,3 +1,4 @@
+using RankFreq.Primitives;
 using System.Globalization;
 using Parquet;
 using Parquet.Schema;
@@ -73,6 +74,8 @@ public static class CountTableFile
         ParquetReader r;
         try
         {
+            // a damaged footer can send the Parquet decoder into an endless loop: walked first, bounds checked
+            if (ParquetFooterCheck.Problem(path) is { } problem) throw new InvalidDataException(problem);
             r = await ParquetReader.CreateAsync(path, cancellationToken: ct);
             _ = r.Schema.GetDataFields(); // the schema is decoded when first asked for: a damaged one fails here
         }

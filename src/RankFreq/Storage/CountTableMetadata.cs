@@ -69,7 +69,21 @@ public sealed record CountTableMetadata(
 
     internal static CountTableMetadata FromFooter(IReadOnlyDictionary<string, string> f, string path)
     {
-        string Get(string k) => f.TryGetValue("rankfreq." + k, out var v)
+        try
+        {
+            return Parse(f, path);
+        }
+        catch (Exception e) when (e is FormatException or OverflowException or System.Text.Json.JsonException
+            or KeyNotFoundException or InvalidOperationException or ArgumentException)
+        {
+            // a damaged footer whose Thrift structure survived: the values themselves are garbled
+            throw new StorageException($"{path}: damaged count table footer (rankfreq.* metadata: {e.Message.Split('\n')[0]})", e);
+        }
+    }
+
+    private static CountTableMetadata Parse(IReadOnlyDictionary<string, string> f, string path)
+    {
+        string Get(string k) => f.TryGetValue("rankfreq." + k, out var v) && v is not null
             ? v
             : throw new StorageException($"{path}: not a RankFreq count table (footer key rankfreq.{k} missing)");
         var inputs = new List<InputInfo>();
