@@ -47,6 +47,19 @@ public static class ParquetFooterCheck
         return Problem(fs);
     }
 
+    /// <summary>Throws <see cref="InvalidDataException"/> with <see cref="Problem(Stream)"/>, if any: called before a
+    /// Parquet decoder opens <paramref name="file"/>, inside the caller's "not a readable Parquet file" handling.</summary>
+    public static void ThrowIfDamaged(Stream file)
+    {
+        if (Problem(file) is { } problem) throw new InvalidDataException(problem);
+    }
+
+    /// <summary><see cref="ThrowIfDamaged(Stream)"/> for the file at <paramref name="path"/>.</summary>
+    public static void ThrowIfDamaged(string path)
+    {
+        if (Problem(path) is { } problem) throw new InvalidDataException(problem);
+    }
+
     private ref struct Walk(ReadOnlySpan<byte> b)
     {
         private readonly ReadOnlySpan<byte> _b = b;

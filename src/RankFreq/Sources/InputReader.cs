@@ -126,8 +126,7 @@ public static class InputReader
         ParquetReader reader;
         try
         {
-            // a damaged footer can send the Parquet decoder into an endless loop: walked first, bounds checked
-            if (ParquetFooterCheck.Problem(fs) is { } problem) throw new InvalidDataException(problem);
+            ParquetFooterCheck.ThrowIfDamaged(fs); // a damaged footer can loop the Parquet decoder for ever
             reader = ParquetReader.CreateAsync(fs, cancellationToken: ct).GetAwaiter().GetResult();
             _ = reader.Schema.GetDataFields(); // the schema is decoded when first asked for: a damaged one fails here
         }

@@ -74,8 +74,7 @@ public static class CountTableFile
         ParquetReader r;
         try
         {
-            // a damaged footer can send the Parquet decoder into an endless loop: walked first, bounds checked
-            if (ParquetFooterCheck.Problem(path) is { } problem) throw new InvalidDataException(problem);
+            ParquetFooterCheck.ThrowIfDamaged(path); // a damaged footer can loop the Parquet decoder for ever
             r = await ParquetReader.CreateAsync(path, cancellationToken: ct);
             _ = r.Schema.GetDataFields(); // the schema is decoded when first asked for: a damaged one fails here
         }
