@@ -611,6 +611,7 @@ public sealed partial class TailSearch
         // evaluation (TailSearch.Screen.cs); their interior status is then unknown when the test was above the start
         bool screened = false;
         var memo = new ScreenMemo();
+        var blocks = new BlockMemo();
         for (int pass = first0 >= 0 ? 0 : 1; pass < (stride > 1 ? 3 : 2); pass++)
         {
             double warm = best?.Alpha ?? 2;
@@ -622,6 +623,34 @@ public sealed partial class TailSearch
             {
                 if (pass > 0 && (i == first0 || pass == 2 && rem == 0)) continue;
                 double giveUp = i < bestI ? Math.BitIncrement(bestD) : bestD;
+                // runs of consecutive candidates dropped at once (TailSearch.Blocks.cs); the run may hold candidates
+                // already visited (the sample, the first): a bound that holds for all drops nothing they decided
+                if (!full && step == 1 && i >= blocks.Resume && _v[i] >= BlockFrom && double.IsFinite(bestD))
+                {
+                    int b = Math.Min(i + blocks.Len, pass == 0 ? first0 + 1 : candidates) - 1;
+                    // a run over which the tail count moves by more than 1/256 is too coarse for the bound
+                    long most = _nSuffix[i] - (_nSuffix[i] >> 8);
+                    while (b - i + 1 >= MinBlock && _nSuffix[b] < most) b = i + (b - i + 1) / 2 - 1;
+                    if (b - i + 1 >= MinBlock)
+                    {
+                        if (BlockScreen(i, b, giveUp, offset, ref blocks, ref memo))
+                        {
+                            // the run's fits are not known to be interior: an at-cap best then takes the full scan
+                            screened = true;
+                            BlockDropped += b - i + 1;
+                            blocks.Len = Math.Min(MaxBlock, 2 * blocks.Len);
+                            blocks.Backoff = 0;
+                            if (stride > 1) rem = (rem + (b - i)) % stride;
+                            i = b; // the loop steps to b + 1 (and rem with it)
+                            continue;
+                        }
+                        // the run's candidates one by one, then a shorter run
+                        // (after failures at the shortest length, the next try waits longer each time)
+                        if (blocks.Len == MinBlock) blocks.Backoff = Math.Min(256, Math.Max(8, 2 * blocks.Backoff));
+                        blocks.Resume = b + 1 + blocks.Backoff;
+                        blocks.Len = Math.Max(MinBlock, blocks.Len / 2);
+                    }
+                }
                 PowerLawFit f;
                 double lnZeta = double.NaN;
                 if (full) f = FitAt(i, warm);

@@ -38,13 +38,60 @@ public class SearchScreenTests
     {
         // exactness of the screen (TailSearch.Screen.cs remarks): the same status, xmin, α (to the Newton tolerance)
         // and KS distance as the unscreened point-by-point scan, on 120 word-count-like spectra and several --min-tail
+        long dropped = 0;
         for (ulong seed = 1; seed <= 120; seed++)
         {
             var buf = ZipfLike(seed);
             var s = new TailSearch(buf.Values, buf.Mult, buf.Count);
             int minTail = seed % 3 == 0 ? 5 : 50;
             XminSearchTests.AssertSameFit(s.SearchFullScan(minTail), s.Search(minTail), seed);
+            dropped += s.BlockDropped;
         }
+        // the runs dropped at once by the block screen (TailSearch.Blocks.cs) were part of what was compared
+        Assert.True(dropped > 10_000, $"only {dropped} candidates were dropped in runs");
+    }
+
+    [Fact]
+    public void BlockBoundNeverExceedsTheDistanceOfAnyCandidateInTheRun()
+    {
+        // the block screen's bound (TailSearch.Blocks.cs) for runs of 4 to 64 consecutive candidates, with the predicted
+        // bracket shifted by several offsets: never above the KS distance of any candidate of the run at its fitted α
+        // (point by point), and above a typical level often enough to be of use
+        int tested = 0, useful = 0;
+        for (ulong seed = 1; seed <= 20; seed++)
+        {
+            var buf = ZipfLike(seed);
+            var s = new TailSearch(buf.Values, buf.Mult, buf.Count);
+            // each run's candidates fitted and walked point by point (only those: the scan is O(k) per candidate)
+            double Distance(int i)
+            {
+                var f = s.FitAt(i);
+                return f.Status is FitStatus.Ok or FitStatus.AtBound ? s.KsFullScan(i, f.Alpha) : double.PositiveInfinity;
+            }
+            int first = s.IndexOf(64);
+            for (int a = first, t = 0; a < buf.Count - 6; a += 1 + (buf.Count - first) / 25, t++)
+            {
+                int len = 4 << (t % 5);
+                int b = Math.Min(a + len, buf.Count - 2) - 1;
+                if (b - a + 1 < 4) continue;
+                double least = double.NaN;
+                foreach (double offset in new[] { double.NaN, 0, 1e-3, -1e-3, 0.05, -0.05 })
+                {
+                    double bound = s.BlockBound(a, b, offset);
+                    if (double.IsNaN(bound)) continue;
+                    tested++;
+                    if (double.IsNaN(least))
+                    {
+                        least = double.PositiveInfinity;
+                        for (int i = a; i <= b; i++) least = Math.Min(least, Distance(i));
+                    }
+                    Assert.True(bound <= least, $"seed {seed}, run {a}..{b}, offset {offset}: bound {bound:R} > KS {least:R}");
+                    if (bound >= 0.002) useful++;
+                }
+            }
+        }
+        Assert.True(tested > 300, $"only {tested} bounds were verified");
+        Assert.True(useful > tested / 4, $"only {useful} of {tested} bounds reach 0.002");
     }
 
     [Fact]

@@ -225,6 +225,7 @@ public class ReplicateLevelTests
         // verdict at the data's distance against the full scan of a fresh copy
         var gof = new SpectrumBuffer();
         int n = 0;
+        long dropped = 0;
         for (ulong seed = 1; seed <= 30; seed++)
         {
             var baseBuf = Spectrum(seed);
@@ -240,7 +241,9 @@ public class ReplicateLevelTests
                 long nTail = BinomialSampler.Draw(rng, nTypes, pl.NTail / (double)nTypes);
                 Synthetic.Multinomial(rng, v, m, 0, from, nTypes - nTail, gof);
                 Synthetic.PowerLawTail(rng, pl.Alpha, pl.Xmin, nTail, gof);
-                var verdict = gof.NewSearch().ReachesLevel(20, pl.Xmin, pl.KsDistance);
+                var search = gof.NewSearch();
+                var verdict = search.ReachesLevel(20, pl.Xmin, pl.KsDistance);
+                dropped += search.BlockDropped;
                 var full = new TailSearch(gof.Values[..gof.Count], gof.Mult[..gof.Count], gof.Count).SearchFullScan(20);
                 var expected = Expected(full, pl.KsDistance);
                 Assert.True(expected == verdict,
@@ -249,6 +252,8 @@ public class ReplicateLevelTests
             }
         }
         Assert.True(n > 60, $"only {n} replicates compared");
+        // the block screen (TailSearch.Blocks.cs) took part in the verdicts compared
+        Assert.True(dropped > 0, "no candidate was dropped in a run");
     }
 
     [Fact]
