@@ -155,7 +155,8 @@ public static class TailFitter
 
     /// <summary>Σ ln r and Σ ln² r over the ranks a..b.</summary>
     /// <remarks>
-    /// Up to 64 ranks, ranks below 65 and blocks shorter than a/2^16, term by term; else Σ ln r = lnΓ(b+1) − lnΓ(a) and Euler–Maclaurin for ln² r (DLMF §2.10.1):
+    /// Up to 64 ranks, ranks below 65 and blocks shorter than a/2^16, term by term; else Σ ln r = lnΓ(b+1) − lnΓ(a)
+    /// and Euler–Maclaurin for ln² r (DLMF §2.10.1):
     /// ∫_a^b ln² x dx + (ln² a + ln² b)/2 + (B₂/2!)(f′(b) − f′(a)), f′(x) = 2 ln x / x, with ∫ ln² x = x(ln² x − 2 ln x + 2).
     /// The first term left out is (B₄/4!)|f‴| ≤ (4 ln a + 6)/(720 a³) (f‴(x) = (8 ln x − 12)/x³, B₄/4! = −1/720), below
     /// 1e-7 for a ≥ 65 against a sum of more than 64 terms. Tested against the sums term by term for blocks of 65 to

@@ -26,7 +26,9 @@ namespace RankFreq.Fitting;
 /// cannot be pruned, and only blocks whose CDF change is comparable to d survive, so in practice the search is
 /// close to O(k log k). <see cref="SearchFullScan"/> keeps the point-by-point scan as the reference.</para>
 /// <para>Before a candidate is fitted, an exact lower bound on its KS distance from one ζ evaluation at the predicted
-/// Newton start drops it when it cannot beat the best so far (TailSearch.Screen.cs, with its proof sketch).</para>
+/// Newton start drops it when it cannot beat the best so far (TailSearch.Screen.cs, with its proof sketch). Before
+/// that, runs of consecutive candidates are tried with one bound for all of them (TailSearch.Blocks.cs, with its proof
+/// sketch): two ζ'/ζ sums per run instead of one ζ sum per candidate.</para>
 /// <para>A KS walk with a give-up level first evaluates the two points at the value where the previous walk of the
 /// same search peaked; the deviation at any point of the tail is a lower bound on the supremum, so when it reaches the
 /// level by more than 1e-9 the candidate is abandoned there (it could not have beaten the best), and otherwise nothing
