@@ -610,7 +610,8 @@ public sealed partial class TailSearch
         int first0 = full || firstXmin <= 0 ? -1 : IndexOf(firstXmin);
         if (first0 >= candidates) first0 = -1;
         // Pruned search only: candidates whose KS distance provably reaches the best so far are dropped after one ζ
-        // evaluation (TailSearch.Screen.cs); their interior status is then unknown when the test was above the start
+        // evaluation (TailSearch.Screen.cs); their interior status is then not recorded on either side (a drop below
+        // the start would be an interior fit the full scan counts), so an at-cap best with none seen takes the full scan
         bool screened = false;
         var memo = new ScreenMemo();
         var blocks = new BlockMemo();
@@ -663,7 +664,7 @@ public sealed partial class TailSearch
                     LogZeta? first = null;
                     if (double.IsFinite(bestD) && i < _k - 1)
                     {
-                        if (Screen(i, start, giveUp, ref memo, out bool upward, out var atStart)) { screened |= upward; continue; }
+                        if (Screen(i, start, giveUp, ref memo, out _, out var atStart)) { screened = true; continue; }
                         if (!double.IsNaN(atStart.Ln)) first = atStart;
                     }
                     f = FitCore(i, start, 0, first, out lnZeta);

@@ -52,6 +52,33 @@ public class SearchScreenTests
     }
 
     [Fact]
+    public void ScreenedSearchEqualsTheFullScanWhereTheBestIsAtTheCap()
+    {
+        // spectra whose KS-best candidate has α at the cap (near-uniform counts, sometimes under a power-law head): the
+        // status then depends on whether any candidate had an interior fit (at_bound) or none (no_maximum), so a
+        // candidate the screen drops must not hide an interior fit the full scan sees
+        int atCap = 0;
+        for (ulong seed = 1; seed <= 60; seed++)
+        {
+            var rng = new Xoshiro(seed, 53, 0);
+            var buf = new SpectrumBuffer();
+            long from = 1;
+            if (seed % 2 == 0)
+            {
+                from = 2 + rng.NextLong(30);
+                for (long x = 1; x < from; x++) buf.Add(x, (long)(50_000 * Math.Pow(x, -2.0) * (0.5 + rng.NextDouble())));
+            }
+            long width = 200 + rng.NextLong(3000), most = 1 + rng.NextLong(20);
+            for (long x = from; x < from + width; x++) buf.Add(x, 1 + rng.NextLong(most));
+            var s = new TailSearch(buf.Values, buf.Mult, buf.Count);
+            var full = s.SearchFullScan(10);
+            XminSearchTests.AssertSameFit(full, s.Search(10), seed);
+            if (full.Status is FitStatus.AtBound or FitStatus.NoMaximum) atCap++;
+        }
+        Assert.True(atCap >= 20, $"only {atCap} of 60 spectra had their best candidate at the cap");
+    }
+
+    [Fact]
     public void BlockBoundNeverExceedsTheDistanceOfAnyCandidateInTheRun()
     {
         // the block screen's bound (TailSearch.Blocks.cs) for runs of 4 to 64 consecutive candidates, with the predicted
