@@ -37,7 +37,7 @@ internal static class RankBuilder
             var main = all[0];
             for (int i = 1; i < all.Count; i++) { main.MergeFrom(all[i]); all[i].Clear(); }
             main.FreeSlots(); // the slots are not read again: free them before the sort records are made
-            var sorted = main.SortedByRank(parallel: true);
+            var sorted = main.SortedByRank(parallel: true, consume: true);
             int n = sorted.Length;
             var counts = new long[n];
             var ids = withIds ? new int[n] : null;

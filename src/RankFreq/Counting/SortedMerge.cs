@@ -108,7 +108,7 @@ internal static unsafe class SortedMerge
             Parallel.For(0, k, CoreLimit.Options, i =>
             {
                 tables[i].FreeSlots();
-                var sorted = parts[i] = tables[i].SortedByRank(parallel: false);
+                var sorted = parts[i] = tables[i].SortedByRank(parallel: false, consume: true);
                 var g = growths[i] = growth.Fork();
                 for (int r = 0; r < sorted.Length; r++) g.Add(sorted.FirstAt(r));
                 // short keys only: the sort records are all that is read from here on
