@@ -109,7 +109,7 @@ internal static class RankBuilder
         {
             held += t.MemoryBytes;
             types += t.Count;
-            foreach (ref readonly var e in t.Entries) keyBytes += e.Len;
+            keyBytes += t.KeyBytes;
         }
         if (disjoint) return held + types * (40 + 24 + 8 + 8 + 32) + 2 * keyBytes;
         return held + types * (4 * 32 + 32 + 52 + 32 + 8) + 2 * keyBytes;

@@ -21,8 +21,16 @@ internal static unsafe class SortedMerge
     /// <summary>Counts below this are placed by a counting sort; larger ones (at most tokens / this) are compared.</summary>
     private const int Buckets = 1 << 16;
 
-    /// <summary>One ranked type: its key words, length and where its key bytes are (table, entry).</summary>
-    private readonly record struct Row(ulong A, ulong B, int Len, int Part, int Index);
+    /// <summary>
+    /// One ranked type in 20 bytes: its key words and length, or for a key over 16 bytes where its bytes are (table and
+    /// entry in place of the words). A row per type is alive beside the counts at the rank step's peak.
+    /// </summary>
+    [System.Runtime.InteropServices.StructLayout(System.Runtime.InteropServices.LayoutKind.Sequential, Pack = 4)]
+    private readonly record struct Row(ulong A, ulong B, int Len)
+    {
+        public static Row Of(ulong a, ulong b, int len, int part, int index) =>
+            len <= 16 ? new Row(a, b, len) : new Row((ulong)part, (ulong)index, len);
+    }
 
     /// <summary>Ranks <paramref name="tables"/> (two or more, none empty); frees their slots on the way.</summary>
     public static (Utf8Tokens[] Tokens, long[] Counts, int[]? Ids) Rank(List<TokenTable> tables, GrowthHistogram growth,
@@ -72,7 +80,7 @@ internal static unsafe class SortedMerge
                 order++;
                 counts[r] = count;
                 if (ids is not null) ids[r] = id;
-                placed[r] = new Row(c.A, c.B, c.Len, c.Part, c.Index);
+                placed[r] = Row.Of(c.A, c.B, c.Len, c.Part, c.Index);
                 growth.Add(first);
             });
             foreach (var p in parts) p.Dispose();
@@ -159,7 +167,7 @@ internal static unsafe class SortedMerge
                     int at = pos[m]++;
                     counts[r] = part.CountAt(at);
                     if (ids is not null) ids[r] = part.IdAt(at);
-                    ((Row*)placedAt)[r] = new Row(part.AAt(at), part.BAt(at), part.LenAt(at), m, part.IndexAt(at));
+                    ((Row*)placedAt)[r] = Row.Of(part.AAt(at), part.BAt(at), part.LenAt(at), m, part.IndexAt(at));
                 }
             });
             foreach (var p in parts) p.Dispose();
@@ -204,7 +212,7 @@ internal static unsafe class SortedMerge
 
     private static ReadOnlySpan<byte> KeyOf(List<TokenTable> tables, in Row row, Span<byte> buffer)
     {
-        if (row.Len > 16) return tables[row.Part].Key(tables[row.Part].Entries[row.Index]);
+        if (row.Len > 16) return tables[(int)row.A].Key(tables[(int)row.A].Entries[(int)row.B]);
         BinaryPrimitives.WriteUInt64BigEndian(buffer, row.A);
         BinaryPrimitives.WriteUInt64BigEndian(buffer[8..], row.B);
         return buffer[..row.Len];

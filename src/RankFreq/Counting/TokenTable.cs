@@ -63,6 +63,7 @@ internal sealed unsafe partial class TokenTable : IDisposable
     private int _entryCap;
     private int _count;
     private long _arenaBytes;
+    private long _keyBytes;
     private bool _dirty;
 
     /// <summary>An empty table.</summary>
@@ -96,6 +97,7 @@ internal sealed unsafe partial class TokenTable : IDisposable
         _entries = null;
         _pageCount = 0;
         _arenaBytes = 0;
+        _keyBytes = 0;
         _slotCount = 0;
         _entryCap = 0;
         _count = 0;
@@ -113,6 +115,9 @@ internal sealed unsafe partial class TokenTable : IDisposable
 
     /// <summary>Number of distinct keys.</summary>
     public int Count => _count;
+
+    /// <summary>Summed length of the keys in bytes.</summary>
+    public long KeyBytes => _keyBytes;
 
     /// <summary>Approximate bytes held (slots, entries and arena).</summary>
     public long MemoryBytes => (long)_slotCount * sizeof(Slot) + (long)_entryCap * sizeof(Entry) + _arenaBytes;
@@ -348,6 +353,7 @@ internal sealed unsafe partial class TokenTable : IDisposable
         _entries[_count] = new Entry { K0 = a, K1 = b, Len = len, Id = id, Count = count, First = first };
         if (id != -1) _hasIds = true;
         _count++;
+        _keyBytes += len;
         s.Tag = (uint)h;
         s.Count = 0; // the count is in the entry
         s.Unit = (int)(first >> 40);

@@ -91,13 +91,14 @@ public class CountingTests
         // A slot keeps 32 bits of the hash (the tag) and the key lives in the entry: keys with equal tags share a home
         // slot and must still be told apart by their key words and length, on both the packed and the byte path.
         var rng = new Random(21);
-        var byTag = new Dictionary<uint, byte[]>();
+        // pairs of equal length, so only the key words tell them apart
+        var byTag = new Dictionary<ulong, byte[]>();
         var pairs = new List<(byte[] X, byte[] Y)>();
         while (pairs.Count < 8)
         {
-            var k = new byte[1 + rng.Next(16)];
+            var k = new byte[5 + rng.Next(12)];
             rng.NextBytes(k);
-            uint tag = (uint)KeyPacking.Hash(k);
+            ulong tag = (uint)KeyPacking.Hash(k) | (ulong)k.Length << 32;
             if (!byTag.TryGetValue(tag, out var other)) byTag[tag] = k;
             else if (!other.AsSpan().SequenceEqual(k)) pairs.Add((other, k));
         }
