@@ -24,10 +24,37 @@ internal sealed unsafe partial class TokenTable
     /// sequential pass: reading them through entry indices instead costs a cache and TLB miss per type in the
     /// entries and another in the arena, which at millions of types was most of a ranking's time.
     /// </remarks>
-    public SortedTypes Sorted(bool byCount)
+    /// <remarks>
+    /// With <paramref name="consume"/>, a table of short keys without ids turns its entries into the records in place
+    /// (as <see cref="SortedByRank"/> does) and is empty afterwards: a spill then needs no second block beside the table.
+    /// </remarks>
+    public SortedTypes Sorted(bool byCount, bool consume = false)
     {
         var entries = Entries;
         int n = entries.Length;
+        if (consume && SortsInPlace && n > 0)
+        {
+            long bytes = (long)_entryCap * sizeof(Entry);
+            var records = (SortKey*)_entries;
+            for (int i = 0; i < n; i++)
+            {
+                var r = RecordOf(_entries[i], i); // the whole entry read before its record overwrites it
+                records[i] = r;
+            }
+            _entries = null;
+            _entryCap = 0;
+            FreeAll();
+            try
+            {
+                new SortKeyComparer(this, byCount).SortParallel(records, n);
+                return new SortedTypes(this, records, n, bytes);
+            }
+            catch
+            {
+                NativeBlock.Free(records, bytes);
+                throw;
+            }
+        }
         var keys = (SortKey*)NativeBlock.Alloc((long)Math.Max(1, n) * sizeof(SortKey));
         try
         {
@@ -69,7 +96,7 @@ internal sealed unsafe partial class TokenTable
         var next = new int[Buckets];
         int at = hist[0];
         for (int c = Buckets - 1; c >= 1; c--) { next[c] = at; at += hist[c]; }
-        bool inPlace = consume && !_hasLongKeys && !_hasIds && n > 0;
+        bool inPlace = consume && SortsInPlace && n > 0;
         long keysBytes = inPlace ? (long)_entryCap * sizeof(Entry) : (long)Math.Max(1, n) * sizeof(SortKey);
         var keys = inPlace ? RecordsInPlace(hist, next) : (SortKey*)NativeBlock.Alloc(keysBytes);
         try
@@ -244,6 +271,9 @@ internal sealed unsafe partial class TokenTable
         _slots = null;
         _slotCount = 0;
     }
+
+    /// <summary>Whether <see cref="SortedByRank"/> with <c>consume</c> turns the entries into the sort records in place.</summary>
+    internal bool SortsInPlace => !_hasLongKeys && !_hasIds;
 
     /// <summary>Whether any key was added with a vocabulary id (otherwise every id is -1).</summary>
     private bool _hasIds;
