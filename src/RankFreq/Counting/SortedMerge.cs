@@ -297,6 +297,10 @@ internal static unsafe class SortedMerge
         if (x.A != y.A) return x.A < y.A ? -1 : 1;
         if (x.B != y.B) return x.B < y.B ? -1 : 1;
         if (x.Len <= 16 && y.Len <= 16) return x.Len.CompareTo(y.Len);
+        // the first 16 bytes (zero-padded) are equal: a key of at most 16 bytes is a prefix of the longer one, and its
+        // table may be freed already (short keys only rank from their sort records), so it is not read
+        if (x.Len <= 16) return -1;
+        if (y.Len <= 16) return 1;
         var tx = tables[x.Part];
         var ty = tables[y.Part];
         return tx.Key(tx.Entries[x.Index]).SequenceCompareTo(ty.Key(ty.Entries[y.Index]));

@@ -455,6 +455,9 @@ internal sealed unsafe partial class TokenTable : IDisposable
             if (x.A != y.A) return x.A < y.A ? -1 : 1;
             if (x.B != y.B) return x.B < y.B ? -1 : 1;
             if (x.Len <= 16 && y.Len <= 16) return x.Len.CompareTo(y.Len);
+            // equal first 16 bytes: a key of at most 16 bytes is a prefix of the longer one
+            if (x.Len <= 16) return -1;
+            if (y.Len <= 16) return 1;
             return CompareArena(x.Index, y.Index);
         }
 
