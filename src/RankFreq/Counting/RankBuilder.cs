@@ -37,7 +37,7 @@ internal static class RankBuilder
             var main = all[0];
             for (int i = 1; i < all.Count; i++) { main.MergeFrom(all[i]); all[i].Clear(); }
             main.FreeSlots(); // the slots are not read again: free them before the sort records are made
-            var sorted = main.SortedByRank(parallel: true);
+            var sorted = main.SortedByRank(parallel: true, consume: true);
             int n = sorted.Length;
             var counts = new long[n];
             var ids = withIds ? new int[n] : null;
@@ -96,23 +96,29 @@ internal static class RankBuilder
     }
 
     /// <summary>
-    /// Bytes that ranking <paramref name="tables"/> in memory may hold at its peak: the tables, the merged table
-    /// growing to at most their summed types (slots at 1/4 to 1/2 load side by side with the doubled array, and
-    /// entries), the sort records (40 bytes), and per type a managed string (about 32 bytes plus two per key byte)
-    /// and its count. Tables that share no key (<paramref name="disjoint"/>) are not merged: the tables, the sort
-    /// records, a placed row (24 bytes), the count and the string.
+    /// Bytes that ranking <paramref name="tables"/> in memory may hold at its peak: the tables as they are (slots
+    /// included, though they are freed before the sort), the sort records (40 bytes a type; none when the entries
+    /// become the records in place: short keys, no ids), a placed row (20 bytes) when several tables are merged, and
+    /// per type its count, id and the UTF-8 chunks (key bytes and a 4-byte start).
     /// </summary>
     internal static long InMemoryBytes(IReadOnlyList<TokenTable> tables, bool disjoint = false)
     {
         long held = 0, types = 0, keyBytes = 0;
+        int filled = 0;
+        bool inPlace = true;
         foreach (var t in tables)
         {
             held += t.MemoryBytes;
             types += t.Count;
-            foreach (ref readonly var e in t.Entries) keyBytes += e.Len;
+            keyBytes += t.KeyBytes;
+            if (t.Count > 0) filled++;
+            inPlace &= t.SortsInPlace;
         }
-        if (disjoint) return held + types * (40 + 24 + 8 + 8 + 32) + 2 * keyBytes;
-        return held + types * (4 * 32 + 32 + 52 + 32 + 8) + 2 * keyBytes;
+        // one table, or disjoint partitions, are put in rank order by SortedByRank (in place when it can); several
+        // workers' tables by key, never in place (SortedMerge.Rank)
+        bool records = !(inPlace && (filled <= 1 || disjoint));
+        long perType = 8 + 4 + 4 + (records ? 40 : 0) + (filled > 1 ? 20 : 0);
+        return held + types * perType + keyBytes;
     }
 
     /// <summary>Rows per batch read back from rank-ordered runs: about 256 bytes of batch per row within the budget.</summary>

@@ -21,8 +21,16 @@ internal static unsafe class SortedMerge
     /// <summary>Counts below this are placed by a counting sort; larger ones (at most tokens / this) are compared.</summary>
     private const int Buckets = 1 << 16;
 
-    /// <summary>One ranked type: its key words, length and where its key bytes are (table, entry).</summary>
-    private readonly record struct Row(ulong A, ulong B, int Len, int Part, int Index);
+    /// <summary>
+    /// One ranked type in 20 bytes: its key words and length, or for a key over 16 bytes where its bytes are (table and
+    /// entry in place of the words). A row per type is alive beside the counts at the rank step's peak.
+    /// </summary>
+    [System.Runtime.InteropServices.StructLayout(System.Runtime.InteropServices.LayoutKind.Sequential, Pack = 4)]
+    private readonly record struct Row(ulong A, ulong B, int Len)
+    {
+        public static Row Of(ulong a, ulong b, int len, int part, int index) =>
+            len <= 16 ? new Row(a, b, len) : new Row((ulong)part, (ulong)index, len);
+    }
 
     /// <summary>Ranks <paramref name="tables"/> (two or more, none empty); frees their slots on the way.</summary>
     public static (Utf8Tokens[] Tokens, long[] Counts, int[]? Ids) Rank(List<TokenTable> tables, GrowthHistogram growth,
@@ -72,7 +80,7 @@ internal static unsafe class SortedMerge
                 order++;
                 counts[r] = count;
                 if (ids is not null) ids[r] = id;
-                placed[r] = new Row(c.A, c.B, c.Len, c.Part, c.Index);
+                placed[r] = Row.Of(c.A, c.B, c.Len, c.Part, c.Index);
                 growth.Add(first);
             });
             foreach (var p in parts) p.Dispose();
@@ -108,7 +116,7 @@ internal static unsafe class SortedMerge
             Parallel.For(0, k, CoreLimit.Options, i =>
             {
                 tables[i].FreeSlots();
-                var sorted = parts[i] = tables[i].SortedByRank(parallel: false);
+                var sorted = parts[i] = tables[i].SortedByRank(parallel: false, consume: true);
                 var g = growths[i] = growth.Fork();
                 for (int r = 0; r < sorted.Length; r++) g.Add(sorted.FirstAt(r));
                 // short keys only: the sort records are all that is read from here on
@@ -159,7 +167,7 @@ internal static unsafe class SortedMerge
                     int at = pos[m]++;
                     counts[r] = part.CountAt(at);
                     if (ids is not null) ids[r] = part.IdAt(at);
-                    ((Row*)placedAt)[r] = new Row(part.AAt(at), part.BAt(at), part.LenAt(at), m, part.IndexAt(at));
+                    ((Row*)placedAt)[r] = Row.Of(part.AAt(at), part.BAt(at), part.LenAt(at), m, part.IndexAt(at));
                 }
             });
             foreach (var p in parts) p.Dispose();
@@ -204,7 +212,7 @@ internal static unsafe class SortedMerge
 
     private static ReadOnlySpan<byte> KeyOf(List<TokenTable> tables, in Row row, Span<byte> buffer)
     {
-        if (row.Len > 16) return tables[row.Part].Key(tables[row.Part].Entries[row.Index]);
+        if (row.Len > 16) return tables[(int)row.A].Key(tables[(int)row.A].Entries[(int)row.B]);
         BinaryPrimitives.WriteUInt64BigEndian(buffer, row.A);
         BinaryPrimitives.WriteUInt64BigEndian(buffer[8..], row.B);
         return buffer[..row.Len];
@@ -289,6 +297,10 @@ internal static unsafe class SortedMerge
         if (x.A != y.A) return x.A < y.A ? -1 : 1;
         if (x.B != y.B) return x.B < y.B ? -1 : 1;
         if (x.Len <= 16 && y.Len <= 16) return x.Len.CompareTo(y.Len);
+        // the first 16 bytes (zero-padded) are equal: a key of at most 16 bytes is a prefix of the longer one, and its
+        // table may be freed already (short keys only rank from their sort records), so it is not read
+        if (x.Len <= 16) return -1;
+        if (y.Len <= 16) return 1;
         var tx = tables[x.Part];
         var ty = tables[y.Part];
         return tx.Key(tx.Entries[x.Index]).SequenceCompareTo(ty.Key(ty.Entries[y.Index]));

@@ -50,10 +50,13 @@ internal sealed class SpillSet(string? root) : IDisposable
         table.Clear();
     }
 
-    /// <summary>Writes every type of <paramref name="table"/> to a run in key or rank order, in one sequential pass.</summary>
+    /// <summary>
+    /// Writes every type of <paramref name="table"/> to a run in key or rank order, in one sequential pass. The table
+    /// may be consumed (see <see cref="TokenTable.Sorted"/>): callers clear it afterwards.
+    /// </summary>
     internal static void WriteSorted(RunWriter w, TokenTable table, bool byCount)
     {
-        using var sorted = table.Sorted(byCount);
+        using var sorted = table.Sorted(byCount, consume: true);
         Span<byte> buffer = stackalloc byte[16];
         for (int i = 0; i < sorted.Length; i++)
             w.Write(sorted.KeyAt(i, buffer), sorted.CountAt(i), sorted.FirstAt(i), sorted.IdAt(i));

@@ -8,11 +8,11 @@ internal sealed unsafe partial class TokenTable
     /// <summary>The sort record of entry <paramref name="i"/>: count, first 16 key bytes, first position.</summary>
     private SortKey RecordOf(in Entry e, int i)
     {
-        var k = Key(e);
-        KeyPacking.Pack16(k[..Math.Min(16, k.Length)], out ulong a, out ulong b);
+        ulong a = e.K0, b = e.K1;
+        if (e.Len > 16) KeyPacking.Pack16(Key(in e)[..16], out a, out b);
         // little-endian packed words byte-reversed: the first byte becomes the most significant
         return new SortKey(e.Count, BinaryPrimitives.ReverseEndianness(a), BinaryPrimitives.ReverseEndianness(b),
-            e.First, k.Length, i);
+            e.First, e.Len, i);
     }
 
     /// <summary>
@@ -24,10 +24,37 @@ internal sealed unsafe partial class TokenTable
     /// sequential pass: reading them through entry indices instead costs a cache and TLB miss per type in the
     /// entries and another in the arena, which at millions of types was most of a ranking's time.
     /// </remarks>
-    public SortedTypes Sorted(bool byCount)
+    /// <remarks>
+    /// With <paramref name="consume"/>, a table of short keys without ids turns its entries into the records in place
+    /// (as <see cref="SortedByRank"/> does) and is empty afterwards: a spill then needs no second block beside the table.
+    /// </remarks>
+    public SortedTypes Sorted(bool byCount, bool consume = false)
     {
         var entries = Entries;
         int n = entries.Length;
+        if (consume && SortsInPlace && n > 0)
+        {
+            long bytes = (long)_entryCap * sizeof(Entry);
+            var records = (SortKey*)_entries;
+            for (int i = 0; i < n; i++)
+            {
+                var r = RecordOf(_entries[i], i); // the whole entry read before its record overwrites it
+                records[i] = r;
+            }
+            _entries = null;
+            _entryCap = 0;
+            FreeAll();
+            try
+            {
+                new SortKeyComparer(this, byCount).SortParallel(records, n);
+                return new SortedTypes(this, records, n, bytes);
+            }
+            catch
+            {
+                NativeBlock.Free(records, bytes);
+                throw;
+            }
+        }
         var keys = (SortKey*)NativeBlock.Alloc((long)Math.Max(1, n) * sizeof(SortKey));
         try
         {
@@ -36,7 +63,7 @@ internal sealed unsafe partial class TokenTable
                 keys[i] = RecordOf(entries[i], i);
             }
             new SortKeyComparer(this, byCount).SortParallel(keys, n);
-            return new SortedTypes(this, keys, n);
+            return new SortedTypes(this, keys, n, (long)Math.Max(1, n) * sizeof(SortKey));
         }
         catch
         {
@@ -51,7 +78,14 @@ internal sealed unsafe partial class TokenTable
     /// bucket by key alone: no count comparisons, and the buckets are small except the lowest counts'. With
     /// <paramref name="parallel"/>, large buckets are sorted on two threads.
     /// </summary>
-    public SortedTypes SortedByRank(bool parallel)
+    /// <remarks>
+    /// With <paramref name="consume"/>, a table whose keys are all of at most 16 bytes and that has no ids (so the
+    /// records are all that is read afterwards) turns each entry into its sort record where it lies — both are 40
+    /// bytes — and places the records by count in place (American flag sort over the count buckets): no second block
+    /// of records beside the entries, which had been the peak of a count at millions of types. The table gives its
+    /// blocks up and is empty afterwards.
+    /// </remarks>
+    public SortedTypes SortedByRank(bool parallel, bool consume = false)
     {
         const int Buckets = 1 << 16;
         var entries = Entries;
@@ -62,15 +96,18 @@ internal sealed unsafe partial class TokenTable
         var next = new int[Buckets];
         int at = hist[0];
         for (int c = Buckets - 1; c >= 1; c--) { next[c] = at; at += hist[c]; }
-        var keys = (SortKey*)NativeBlock.Alloc((long)Math.Max(1, n) * sizeof(SortKey));
+        bool inPlace = consume && SortsInPlace && n > 0;
+        long keysBytes = inPlace ? (long)_entryCap * sizeof(Entry) : (long)Math.Max(1, n) * sizeof(SortKey);
+        var keys = inPlace ? RecordsInPlace(hist, next) : (SortKey*)NativeBlock.Alloc(keysBytes);
         try
         {
-            for (int i = 0; i < n; i++)
-            {
-                ref readonly var e = ref entries[i];
-                int bucket = e.Count < Buckets ? (int)e.Count : 0;
-                keys[next[bucket]++] = RecordOf(e, i);
-            }
+            if (!inPlace)
+                for (int i = 0; i < n; i++)
+                {
+                    ref readonly var e = ref entries[i];
+                    int bucket = e.Count < Buckets ? (int)e.Count : 0;
+                    keys[next[bucket]++] = RecordOf(e, i);
+                }
             var byRank = new SortKeyComparer(this, byCount: true);
             var byKey = new SortKeyComparer(this, byCount: false);
             if (hist[0] > 1) byRank.Sort(keys, 0, hist[0] - 1);
@@ -82,13 +119,60 @@ internal sealed unsafe partial class TokenTable
                 int lo = next[c] - size;
                 if (size > 1) RadixThenSort(byKey, keys + lo, size, 0, parallel);
             }
-            return new SortedTypes(this, keys, n);
+            return new SortedTypes(this, keys, n, keysBytes);
         }
         catch
         {
-            NativeBlock.Free(keys, (long)Math.Max(1, n) * sizeof(SortKey));
+            NativeBlock.Free(keys, keysBytes);
             throw;
         }
+    }
+
+    /// <summary>
+    /// The entries turned into sort records where they lie and placed in count-bucket order in place, each record
+    /// moved once (cycle leader); <paramref name="next"/> holds each bucket's start and ends at its end. The table's
+    /// other blocks are freed and the block of records is handed over: the table is empty afterwards.
+    /// </summary>
+    private SortKey* RecordsInPlace(int[] hist, int[] next)
+    {
+        const int Buckets = 1 << 16;
+        int n = _count;
+        var keys = (SortKey*)_entries;
+        for (int i = 0; i < n; i++)
+        {
+            // read the whole entry before the record overwrites it (same 40 bytes)
+            var r = RecordOf(_entries[i], i);
+            keys[i] = r;
+        }
+        // bucket ends, in the order the buckets lie: bucket 0 (large counts) first, then counts descending
+        var end = new int[Buckets];
+        end[0] = hist[0];
+        for (int c = 1; c < Buckets; c++) end[c] = next[c] + hist[c];
+        var head = new int[Buckets];
+        head[0] = 0;
+        for (int c = 1; c < Buckets; c++) head[c] = next[c];
+        for (int c = 0; c < Buckets; c++)
+        {
+            int stop = end[c];
+            while (head[c] < stop)
+            {
+                var v = keys[head[c]];
+                int d = v.Count < Buckets ? (int)v.Count : 0;
+                while (d != c)
+                {
+                    (v, keys[head[d]]) = (keys[head[d]], v);
+                    head[d]++;
+                    d = v.Count < Buckets ? (int)v.Count : 0;
+                }
+                keys[head[c]++] = v;
+            }
+        }
+        for (int c = 1; c < Buckets; c++) next[c] = end[c];
+        // the block now belongs to the records: the table lets go of it and frees the rest
+        _entries = null;
+        _entryCap = 0;
+        FreeAll();
+        return keys;
     }
 
     /// <summary>
@@ -188,6 +272,9 @@ internal sealed unsafe partial class TokenTable
         _slotCount = 0;
     }
 
+    /// <summary>Whether <see cref="SortedByRank"/> with <c>consume</c> turns the entries into the sort records in place.</summary>
+    internal bool SortsInPlace => !_hasLongKeys && !_hasIds;
+
     /// <summary>Whether any key was added with a vocabulary id (otherwise every id is -1).</summary>
     private bool _hasIds;
 
@@ -211,12 +298,14 @@ internal sealed unsafe partial class TokenTable
     {
         private readonly TokenTable _table;
         private SortKey* _keys;
+        private readonly long _bytes;
 
-        internal SortedTypes(TokenTable table, void* keys, int length)
+        internal SortedTypes(TokenTable table, void* keys, int length, long bytes)
         {
             _table = table;
             _keys = (SortKey*)keys;
             Length = length;
+            _bytes = bytes;
         }
 
         /// <summary>Number of types.</summary>
@@ -259,7 +348,7 @@ internal sealed unsafe partial class TokenTable
         /// <summary>Frees the sort records.</summary>
         public void Dispose()
         {
-            NativeBlock.Free(_keys, (long)Math.Max(1, Length) * sizeof(SortKey));
+            NativeBlock.Free(_keys, _bytes);
             _keys = null;
         }
     }

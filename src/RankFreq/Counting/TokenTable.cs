@@ -9,13 +9,18 @@ using RankFreq.Primitives;
 namespace RankFreq.Counting;
 
 /// <summary>
-/// Exact counts keyed on UTF-8 bytes: open addressing (linear probing, load at most 1/2) over slots that hold a
-/// key of up to 16 bytes inline as two zero-padded words, its length and its count, so counting a short token that
-/// is already present touches one cache line and no arena. Longer keys keep their 64-bit hash in the slot and are
-/// compared against the arena (1 MiB pages). Each type also has an entry with its arena reference, vocabulary id and
-/// the first position it was seen, packed as (work unit, token offset), so vocabulary growth can be read off exactly.
+/// Exact counts keyed on UTF-8 bytes: open addressing (linear probing, load at most 1/2) over 16-byte slots that
+/// hold 32 bits of the key's hash (the tag, whose low bits are also the home slot, so growth never reads the
+/// entries), a 32-bit count and the entry index. Each type has an entry holding a key of up to 16 bytes inline as two
+/// zero-padded words (longer keys: an arena reference and the 64-bit hash, the bytes in the arena's 1 MiB pages), its
+/// length, vocabulary id and the first position it was seen, packed as (work unit, token offset), so vocabulary
+/// growth can be read off exactly.
 /// </summary>
 /// <remarks>
+/// A hit compares the tag first and then the entry's key words: a present key costs the slot's line and the entry's,
+/// a new key only the slots it probes (a tag matches a different key with odds of about 2^-(32 - log2 slots) per
+/// probe). Slots of 16 bytes at a load of at most 1/2 and 40-byte entries hold a type in about 72–104 bytes, where
+/// 32-byte slots with the key inline had taken 96–160 plus the key bytes in the arena.
 /// Counts live in the slots while counting (32 bits, folded into the entry before they would wrap); <see
 /// cref="Entries"/> folds them into the entries when read. The slot also keeps the work unit of the type's first
 /// position: one feeder's positions only increase within a work unit, and a unit is read by one thread, so an
@@ -26,20 +31,19 @@ internal sealed unsafe partial class TokenTable : IDisposable
 {
     internal struct Slot
     {
-        public ulong K0, K1; // the key's bytes 0-7 and 8-15, zero-padded (keys of at most 16 bytes); K0 = hash beyond
+        public uint Tag;     // the hash's low 32 bits; its low bits are the home slot
         public uint Count;   // occurrences not yet folded into the entry's count (folded before it would wrap)
         public int Unit;     // work unit of the type's first position (the entry holds the whole position)
-        public int Len;
         public int Entry;    // entry index + 1; 0 = empty
     }
 
     internal struct Entry
     {
-        public long Ref;    // page << 32 | offset
+        public ulong K0, K1; // the key's bytes 0-7 and 8-15, zero-padded (≤ 16 bytes); beyond: arena reference, hash
         public int Len;
-        public int Id;      // vocabulary id, or -1
-        public long Count;  // folded count; whole when read through Entries (the slots' counts folded in)
-        public long First;  // KeyPacking.PackPosition(unit, offset)
+        public int Id;       // vocabulary id, or -1
+        public long Count;   // folded count; whole when read through Entries (the slots' counts folded in)
+        public long First;   // KeyPacking.PackPosition(unit, offset)
     }
 
     // slots, entries and arena pages live in native blocks (NativeBlock): freed at once on Clear, so a spilled
@@ -59,6 +63,7 @@ internal sealed unsafe partial class TokenTable : IDisposable
     private int _entryCap;
     private int _count;
     private long _arenaBytes;
+    private long _keyBytes;
     private bool _dirty;
 
     /// <summary>An empty table.</summary>
@@ -92,6 +97,7 @@ internal sealed unsafe partial class TokenTable : IDisposable
         _entries = null;
         _pageCount = 0;
         _arenaBytes = 0;
+        _keyBytes = 0;
         _slotCount = 0;
         _entryCap = 0;
         _count = 0;
@@ -109,6 +115,9 @@ internal sealed unsafe partial class TokenTable : IDisposable
 
     /// <summary>Number of distinct keys.</summary>
     public int Count => _count;
+
+    /// <summary>Summed length of the keys in bytes.</summary>
+    public long KeyBytes => _keyBytes;
 
     /// <summary>Approximate bytes held (slots, entries and arena).</summary>
     public long MemoryBytes => (long)_slotCount * sizeof(Slot) + (long)_entryCap * sizeof(Entry) + _arenaBytes;
@@ -163,8 +172,13 @@ internal sealed unsafe partial class TokenTable : IDisposable
         _dirty = false;
     }
 
-    /// <summary>The key bytes of an entry.</summary>
-    public ReadOnlySpan<byte> Key(in Entry e) => new((byte*)_pages[(int)(e.Ref >> 32)] + (uint)e.Ref, e.Len);
+    /// <summary>
+    /// The key bytes of an entry, which must be a reference into this table's entries (a key of at most 16 bytes is
+    /// read from the entry itself).
+    /// </summary>
+    public ReadOnlySpan<byte> Key(in Entry e) => e.Len <= 16
+        ? MemoryMarshal.CreateReadOnlySpan(ref Unsafe.As<ulong, byte>(ref Unsafe.AsRef(in e.K0)), e.Len)
+        : new((byte*)_pages[(int)(e.K0 >> 32)] + (uint)e.K0, e.Len);
 
 
     /// <summary>
@@ -210,7 +224,7 @@ internal sealed unsafe partial class TokenTable : IDisposable
             if (i + PrefetchDistance < n) Prefetch(tokens[i + PrefetchDistance].Hash);
             ref readonly var t = ref tokens[i];
             if (t.Len <= 16) AddShortHashed(t.A, t.B, t.Len, t.Hash, t.First);
-            else Upsert(t.Hash, 0, t.Hash, longKeys.Slice((int)t.A, t.Len), 1, t.First, -1);
+            else Upsert(0, 0, t.Hash, longKeys.Slice((int)t.A, t.Len), 1, t.First, -1);
         }
     }
 
@@ -235,23 +249,29 @@ internal sealed unsafe partial class TokenTable : IDisposable
     private void AddShortHashed(ulong a, ulong b, int len, ulong h, long first)
     {
         Slot* slots = _slots;
+        Entry* entries = _entries;
         int mask = _slotCount - 1;
-        int i = (int)h & mask;
+        uint tag = (uint)h;
+        int i = (int)tag & mask;
         while (true)
         {
             Slot* s = slots + i;
-            if (s->K0 == a && s->K1 == b && s->Len == len)
-            {
-                // both rare: a count about to wrap, or an occurrence from an earlier work unit than the first one seen
-                if (s->Count == uint.MaxValue || (int)(first >> 40) < s->Unit) Bump(s, first);
-                else s->Count++;
-                _dirty = true;
-                return;
-            }
             if (s->Entry == 0) break;
+            if (s->Tag == tag)
+            {
+                Entry* e = entries + (s->Entry - 1);
+                if (e->K0 == a && e->K1 == b && e->Len == len)
+                {
+                    // both rare: a count about to wrap, or an occurrence from an earlier work unit than the first seen
+                    if (s->Count == uint.MaxValue || (int)(first >> 40) < s->Unit) Bump(s, first);
+                    else s->Count++;
+                    _dirty = true;
+                    return;
+                }
+            }
             i = (i + 1) & mask;
         }
-        InsertShort(ref slots[i], a, b, len, first);
+        InsertShort(ref slots[i], a, b, len, h, first);
     }
 
     /// <summary>One occurrence the hot path does not handle: folds the slot's count, lowers the first position.</summary>
@@ -266,39 +286,39 @@ internal sealed unsafe partial class TokenTable : IDisposable
     }
 
     [MethodImpl(MethodImplOptions.NoInlining)]
-    private void InsertShort(ref Slot s, ulong a, ulong b, int len, long first)
-    {
-        Span<byte> key = stackalloc byte[16];
-        BinaryPrimitives.WriteUInt64LittleEndian(key, a);
-        BinaryPrimitives.WriteUInt64LittleEndian(key[8..], b);
-        Insert(ref s, a, b, key[..len], 1, first, -1);
-    }
+    private void InsertShort(ref Slot s, ulong a, ulong b, int len, ulong h, long first) =>
+        Insert(ref s, a, b, h, len, default, 1, first, -1);
 
     /// <summary>Adds <paramref name="count"/> occurrences, keeping the earliest first position.</summary>
     public void Add(ReadOnlySpan<byte> key, long count, long first, int id = -1)
     {
         bool isShort = KeyPacking.ShortWords(key, out ulong a, out ulong w);
         ulong h = isShort ? KeyPacking.Mix(a, w, key.Length) : XxHash3.HashToUInt64(key);
-        Upsert(isShort ? a : h, w, h, key, count, first, id);
+        Upsert(a, w, h, key, count, first, id);
     }
 
     /// <summary>
-    /// Adds to the key whose slot words are <paramref name="k0"/>, <paramref name="k1"/> (packed bytes, or the hash and 0
-    /// beyond 16 bytes) and whose bytes are <paramref name="key"/>, read only to insert or to compare a long key.
+    /// Adds to the key whose packed words are <paramref name="a"/>, <paramref name="b"/> (keys of at most 16 bytes;
+    /// ignored beyond), whose hash is <paramref name="h"/> and whose bytes are <paramref name="key"/>, read only to
+    /// store or to compare a long key.
     /// </summary>
-    private void Upsert(ulong k0, ulong k1, ulong h, ReadOnlySpan<byte> key, long count, long first, int id)
+    private void Upsert(ulong a, ulong b, ulong h, ReadOnlySpan<byte> key, long count, long first, int id)
     {
         int mask = _slotCount - 1;
-        int i = (int)h & mask;
+        uint tag = (uint)h;
+        int i = (int)tag & mask;
+        bool isShort = key.Length <= 16;
         while (true)
         {
             ref Slot s = ref _slots[i];
             if (s.Entry == 0)
             {
-                Insert(ref s, k0, k1, key, count, first, id);
+                Insert(ref s, a, b, h, key.Length, key, count, first, id);
                 return;
             }
-            if (s.Len == key.Length && s.K0 == k0 && s.K1 == k1 && (key.Length <= 16 || Key(_entries[s.Entry - 1]).SequenceEqual(key)))
+            ref readonly Entry m = ref _entries[s.Entry - 1];
+            if (s.Tag == tag && m.Len == key.Length
+                && (isShort ? m.K0 == a && m.K1 == b : m.K1 == h && Key(in m).SequenceEqual(key)))
             {
                 ref Entry e = ref _entries[s.Entry - 1];
                 e.Count += count;
@@ -311,20 +331,30 @@ internal sealed unsafe partial class TokenTable : IDisposable
         }
     }
 
-    private void Insert(ref Slot s, ulong k0, ulong k1, ReadOnlySpan<byte> key, long count, long first, int id)
+    /// <summary>
+    /// Inserts a new type into the empty slot <paramref name="s"/>: a key of at most 16 bytes as its packed words
+    /// <paramref name="a"/>, <paramref name="b"/> (<paramref name="key"/> is not read), a longer one stored from
+    /// <paramref name="key"/>.
+    /// </summary>
+    private void Insert(ref Slot s, ulong a, ulong b, ulong h, int len, ReadOnlySpan<byte> key, long count, long first,
+        int id)
     {
         if (_count == _entryCap)
         {
             _entries = (Entry*)NativeBlock.Grow(_entries, (long)_entryCap * sizeof(Entry), 2L * _entryCap * sizeof(Entry));
             _entryCap *= 2;
         }
-        _entries[_count] = new Entry { Ref = Store(key), Len = key.Length, Id = id, Count = count, First = first };
+        if (len > 16)
+        {
+            a = (ulong)Store(key);
+            b = h;
+            _hasLongKeys = true;
+        }
+        _entries[_count] = new Entry { K0 = a, K1 = b, Len = len, Id = id, Count = count, First = first };
         if (id != -1) _hasIds = true;
-        if (key.Length > 16) _hasLongKeys = true;
         _count++;
-        s.K0 = k0;
-        s.K1 = k1;
-        s.Len = key.Length;
+        _keyBytes += len;
+        s.Tag = (uint)h;
         s.Count = 0; // the count is in the entry
         s.Unit = (int)(first >> 40);
         s.Entry = _count;
@@ -376,8 +406,7 @@ internal sealed unsafe partial class TokenTable : IDisposable
         foreach (ref readonly var s in new ReadOnlySpan<Slot>(_slots, _slotCount))
         {
             if (s.Entry == 0) continue;
-            ulong h = s.Len <= 16 ? KeyPacking.Mix(s.K0, s.K1, s.Len) : s.K0;
-            int i = (int)h & mask;
+            int i = (int)s.Tag & mask;
             while (ns[i].Entry != 0) i = (i + 1) & mask;
             ns[i] = s;
         }
@@ -426,6 +455,9 @@ internal sealed unsafe partial class TokenTable : IDisposable
             if (x.A != y.A) return x.A < y.A ? -1 : 1;
             if (x.B != y.B) return x.B < y.B ? -1 : 1;
             if (x.Len <= 16 && y.Len <= 16) return x.Len.CompareTo(y.Len);
+            // equal first 16 bytes: a key of at most 16 bytes is a prefix of the longer one
+            if (x.Len <= 16) return -1;
+            if (y.Len <= 16) return 1;
             return CompareArena(x.Index, y.Index);
         }
 
@@ -514,8 +546,8 @@ internal sealed unsafe partial class TokenTable : IDisposable
             if (i + Ahead < es.Length) ring[i % Ahead] = HashAndPrefetch(other.Key(es[i + Ahead]));
             ref readonly var e = ref es[i];
             var key = other.Key(e);
-            bool isShort = KeyPacking.ShortWords(key, out ulong a, out ulong w);
-            Upsert(isShort ? a : h, w, h, key, e.Count, e.First, e.Id);
+            KeyPacking.ShortWords(key, out ulong a, out ulong w);
+            Upsert(a, w, h, key, e.Count, e.First, e.Id);
         }
     }
 

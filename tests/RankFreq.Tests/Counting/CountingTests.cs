@@ -86,6 +86,77 @@ public class CountingTests
     }
 
     [Fact]
+    public void KeysWhoseSlotTagsCollideAreCountedApart()
+    {
+        // A slot keeps 32 bits of the hash (the tag) and the key lives in the entry: keys with equal tags share a home
+        // slot and must still be told apart by their key words and length, on both the packed and the byte path.
+        var rng = new Random(21);
+        // pairs of equal length, so only the key words tell them apart
+        var byTag = new Dictionary<ulong, byte[]>();
+        var pairs = new List<(byte[] X, byte[] Y)>();
+        while (pairs.Count < 8)
+        {
+            var k = new byte[5 + rng.Next(12)];
+            rng.NextBytes(k);
+            ulong tag = (uint)KeyPacking.Hash(k) | (ulong)k.Length << 32;
+            if (!byTag.TryGetValue(tag, out var other)) byTag[tag] = k;
+            else if (!other.AsSpan().SequenceEqual(k)) pairs.Add((other, k));
+        }
+        var t = new TokenTable();
+        var expected = new Dictionary<string, long>();
+        void Count(byte[] k, int times)
+        {
+            KeyPacking.ShortWords(k, out ulong a, out ulong b);
+            for (int i = 0; i < times; i++)
+                if (i % 2 == 0) t.AddShort(a, b, k.Length, 5);
+                else t.Add(k, 1, 5);
+            expected[Convert.ToHexString(k)] = expected.GetValueOrDefault(Convert.ToHexString(k)) + times;
+        }
+        for (int i = 0; i < pairs.Count; i++)
+        {
+            Count(pairs[i].X, 1 + i);
+            Count(pairs[i].Y, 20 + i);
+        }
+        // fillers force several rehashes between and after the colliding keys
+        for (int i = 0; i < 50_000; i++) Count(BitConverter.GetBytes(i * 7919L + 3), 1);
+        foreach (var (x, y) in pairs) { Count(x, 3); Count(y, 2); }
+        Assert.Equal(expected.Count, t.Count);
+        foreach (ref readonly var e in t.Entries) Assert.Equal(expected[Convert.ToHexString(t.Key(e))], e.Count);
+    }
+
+    [Fact]
+    public void RankSortInPlaceMatchesAPlainOrdinalSortAndEmptiesTheTable()
+    {
+        // Short keys and no ids: the entries become the sort records where they lie and are placed by count in
+        // place. Counts in many buckets, above the bucket range (compared), keys with zero bytes and shared prefixes.
+        var rng = new Random(14);
+        var t = new TokenTable();
+        var seen = new HashSet<string>();
+        var keys = new List<byte[]>();
+        var counts = new List<long>();
+        while (keys.Count < 60_000)
+        {
+            var k = new byte[rng.Next(1, 17)];
+            for (int j = 0; j < k.Length; j++) k[j] = (byte)(rng.Next(8) == 0 ? 0 : rng.Next(97, 101));
+            if (!seen.Add(Convert.ToHexString(k))) continue;
+            long c = rng.Next(4) switch { 0 => rng.Next(2, 300), 1 => rng.Next(65_530, 200_000), _ => 1 };
+            t.Add(k, c, keys.Count);
+            keys.Add(k);
+            counts.Add(c);
+        }
+        var cmp = Comparer<byte[]>.Create((a, b) => a.AsSpan().SequenceCompareTo(b));
+        var expected = Enumerable.Range(0, keys.Count).OrderByDescending(i => counts[i]).ThenBy(i => keys[i], cmp)
+            .Select(i => (counts[i], Convert.ToHexString(keys[i]), (long)i)).ToList();
+        t.FreeSlots();
+        using var sorted = t.SortedByRank(parallel: true, consume: true);
+        Assert.Equal(0, t.Count);
+        var buffer = new byte[16];
+        var got = Enumerable.Range(0, sorted.Length)
+            .Select(r => (sorted.CountAt(r), Convert.ToHexString(sorted.KeyAt(r, buffer)), sorted.FirstAt(r))).ToList();
+        Assert.Equal(expected, got);
+    }
+
+    [Fact]
     public void Pack16EqualsAZeroPaddedCopy()
     {
         var rng = new Random(3);

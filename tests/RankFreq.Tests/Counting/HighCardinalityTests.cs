@@ -4,6 +4,7 @@ using System.Text;
 using System.Text.RegularExpressions;
 using RankFreq.Counting;
 using RankFreq.Jobs;
+using RankFreq.Primitives;
 using Xunit;
 
 namespace RankFreq.Tests.Counting;
@@ -168,6 +169,36 @@ public class HighCardinalityTests(HighCardinalityTests.InputFixture input) : ICl
         Assert.True(expected.Count > 100_000, $"the input should be high-cardinality ({expected.Count} types)");
         Assert.Equal(RowsHash(expected.Select(x => ((string?)x.Token, x.Count))), RowsHash(CountingTests.Rows(r.Rows)));
         Assert.Equal(ReferenceGrowth(text, r.Growth.Tokens), r.Growth.Types);
+    }
+
+    [Fact]
+    public void ASixteenByteKeyAndALongerOneWithItsBytesRankApartAcrossPartitions()
+    {
+        // One partition holds only short keys (its entries become its sort records and its table is freed), another
+        // a key of 17+ bytes whose first 16 bytes are a 16-byte key of the first, with the same count: the two
+        // rank-ordered streams meet at those keys and must order them (the shorter first) without the freed table.
+        const string prefix = "abcdefghijklmnop";
+        int partOfPrefix = RoutedTables.PartOf(KeyPacking.Hash(Encoding.UTF8.GetBytes(prefix)), 2);
+        string longer = Enumerable.Range(0, 26 * 26).Select(i => prefix + (char)('a' + i / 26) + (char)('a' + i % 26))
+            .First(w => RoutedTables.PartOf(KeyPacking.Hash(Encoding.UTF8.GetBytes(w)), 2) != partOfPrefix);
+        var rng = new Random(8);
+        var words = new List<string>();
+        var fillers = new HashSet<string>();
+        while (fillers.Count < 3000)
+        {
+            var w = new string(Enumerable.Range(0, rng.Next(3, 11)).Select(_ => (char)rng.Next('a', 'z' + 1)).ToArray());
+            if (fillers.Add(w)) words.Add(w);
+        }
+        for (int i = 0; i < 3; i++) { words.Add(prefix); words.Add(longer); }
+        using var d = new TempDir();
+        string text = string.Join(' ', words.OrderBy(_ => rng.Next())) + "\n";
+        File.WriteAllText(d["meet.txt"], text);
+        var expected = ReferenceRows(text);
+        using var r = CountJob.Count([d["meet.txt"]], new CountSettings(Threads: 2, SplitAboveBytes: 4 << 10,
+            RouteAboveTypes: 1));
+        var got = CountingTests.Rows(r.Rows);
+        Assert.Equal(RowsHash(expected.Select(x => ((string?)x.Token, x.Count))), RowsHash(got));
+        Assert.Equal([prefix, longer], got.Take(2).Select(x => x.Token).ToList());
     }
 
     [Fact]
