@@ -10,7 +10,7 @@ public sealed record FrequencySpectrum(long[] Values, long[] Types)
     public long TypeCount { get; } = Types.Sum();
 
     /// <summary>Number of tokens (Σ value × multiplicity).</summary>
-    public long TokenCount { get; } = Values.Zip(Types, (v, m) => v * m).Sum();
+    public long TokenCount { get; } = Values.Zip(Types, (v, m) => checked(v * m)).Sum();
 
     /// <summary>Builds a spectrum from (value, multiplicity) pairs in any order; equal values are added up.</summary>
     public static FrequencySpectrum FromPairs(IEnumerable<(long Value, long Types)> pairs)

@@ -12,7 +12,7 @@ public sealed class SpectrumBuilder
     /// <summary>Adds <paramref name="types"/> types that occur <paramref name="value"/> times each.</summary>
     public void Add(long value, long types = 1)
     {
-        if (value == _runValue) { _runTypes += types; return; }
+        if (value == _runValue) { _runTypes = checked(_runTypes + types); return; }
         Flush();
         _runValue = value;
         _runTypes = types;
@@ -29,7 +29,7 @@ public sealed class SpectrumBuilder
 
     private void Flush()
     {
-        if (_runTypes != 0) _types[_runValue] = _types.GetValueOrDefault(_runValue) + _runTypes;
+        if (_runTypes != 0) _types[_runValue] = checked(_types.GetValueOrDefault(_runValue) + _runTypes);
         _runValue = -1;
         _runTypes = 0;
     }

@@ -167,7 +167,10 @@ public static class TailFitter
     {
         // term by term also where the closed forms would cancel: their terms are ~a ln² a against a sum of ~len ln² a,
         // so rounding costs ~1e-16·a/len relative; a/len ≤ 2^16 keeps that near 1e-11
-        if (b - a + 1 <= 64 || (b - a + 1) << 16 < a)
+        // ranks below 1 mean the types' running total overflowed: no slope (and no endless split of the head below)
+        if (a < 1) return (double.NaN, double.NaN);
+        long len = b - a + 1;
+        if (len <= 64 || len < 1L << 47 && len << 16 < a)
         {
             double sumL = 0, sumL2 = 0;
             for (long r = a; r <= b; r++) { double l = Math.Log(r); sumL += l; sumL2 += l * l; }

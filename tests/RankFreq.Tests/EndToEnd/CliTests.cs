@@ -56,6 +56,9 @@ public class CliTests
     [InlineData("12\n3.5\n", "not an integer")]
     [InlineData("12\nabc\n", "is not a count")]
     [InlineData("\n# nothing\n", "no counts")]
+    // a value listed twice whose types add up past a 64-bit count (found by the fuzz campaign: the sum wrapped)
+    [InlineData("1 9223372036854775807\n1 1\n2 1\n3 1\n", "more than a count can hold")]
+    [InlineData("1 9223372036854775807\n1 9223372036854775807\n2 1\n", "more than a count can hold")]
     public void FitRejectsBadCountLists(string content, string message)
     {
         using var d = new TempDir();
