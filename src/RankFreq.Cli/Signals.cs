@@ -32,6 +32,9 @@ internal static class Signals
         {
             c.Cancel = true; // the process ends when the work has unwound, not in the middle of a rename
             int code = c.Signal == PosixSignal.SIGTERM ? Terminated : CliApp.Interrupted;
+            // from here on the run's own failures are the interruption's doing (a temporary folder removed under a
+            // writer still going): only the interruption line is printed
+            stderr.Stopping = true;
             if (Interlocked.Increment(ref received) > 1) Exit(stderr, code); // a second signal: no more waiting
             signalled.TrySetResult(code);
             cts.Cancel();
@@ -47,8 +50,11 @@ internal static class Signals
         int signalCode = await signalled.Task;
         if (await Task.WhenAny(run, Task.Delay(Grace)) != run) Exit(stderr, signalCode);
         int code = await run;
-        // the verb reports cancellation as 130; SIGTERM has its own code
-        return code == CliApp.Interrupted ? signalCode : code;
+        // the verb reports cancellation as 130, and any other failure after the signal is the signal's: the run
+        // left nothing under a final name either way; SIGTERM has its own code. A run that finished is whole.
+        if (code == CliApp.Ok) return code;
+        stderr.WriteLine(CliApp.InterruptedLine);
+        return signalCode;
     }
 
     /// <summary>Ends the process now: removes the temporaries it holds, says so, exits with <paramref name="code"/>.</summary>
@@ -60,17 +66,21 @@ internal static class Signals
         Environment.Exit(code);
     }
 
-    /// <summary>Passes lines through, except a repeat of <see cref="CliApp.InterruptedLine"/>.</summary>
+    /// <summary>Passes lines through, except a repeat of <see cref="CliApp.InterruptedLine"/>, and once a signal has
+    /// come, any line but that one.</summary>
     private sealed class InterruptedOnce(TextWriter inner) : TextWriter
     {
         private int said;
+
+        /// <summary>Set when a signal has come: other lines are dropped.</summary>
+        public volatile bool Stopping;
         public override System.Text.Encoding Encoding => inner.Encoding;
         public override void Write(char value) => inner.Write(value);
         public override void Write(string? value) => inner.Write(value);
         public override void Write(char[] buffer, int index, int count) => inner.Write(buffer, index, count);
         public override void WriteLine(string? value)
         {
-            if (value == CliApp.InterruptedLine && Interlocked.Exchange(ref said, 1) != 0) return;
+            if (value == CliApp.InterruptedLine ? Interlocked.Exchange(ref said, 1) != 0 : Stopping) return;
             inner.WriteLine(value);
         }
         public override void Flush() => inner.Flush();
