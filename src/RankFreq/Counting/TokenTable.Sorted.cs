@@ -35,15 +35,7 @@ internal sealed unsafe partial class TokenTable
         if (consume && SortsInPlace && n > 0)
         {
             long bytes = (long)_entryCap * sizeof(Entry);
-            var records = (SortKey*)_entries;
-            for (int i = 0; i < n; i++)
-            {
-                var r = RecordOf(_entries[i], i); // the whole entry read before its record overwrites it
-                records[i] = r;
-            }
-            _entries = null;
-            _entryCap = 0;
-            FreeAll();
+            var records = TakeEntriesAsRecords();
             try
             {
                 new SortKeyComparer(this, byCount).SortParallel(records, n);
@@ -129,21 +121,14 @@ internal sealed unsafe partial class TokenTable
     }
 
     /// <summary>
-    /// The entries turned into sort records where they lie and placed in count-bucket order in place, each record
-    /// moved once (cycle leader); <paramref name="next"/> holds each bucket's start and ends at its end. The table's
-    /// other blocks are freed and the block of records is handed over: the table is empty afterwards.
+    /// The entries turned into sort records where they lie (<see cref="TakeEntriesAsRecords"/>) and placed in
+    /// count-bucket order in place, each record moved once (cycle leader); <paramref name="next"/> holds each bucket's
+    /// start and ends at its end. The table is empty afterwards.
     /// </summary>
     private SortKey* RecordsInPlace(int[] hist, int[] next)
     {
         const int Buckets = 1 << 16;
-        int n = _count;
-        var keys = (SortKey*)_entries;
-        for (int i = 0; i < n; i++)
-        {
-            // read the whole entry before the record overwrites it (same 40 bytes)
-            var r = RecordOf(_entries[i], i);
-            keys[i] = r;
-        }
+        var keys = TakeEntriesAsRecords();
         // bucket ends, in the order the buckets lie: bucket 0 (large counts) first, then counts descending
         var end = new int[Buckets];
         end[0] = hist[0];
@@ -168,11 +153,26 @@ internal sealed unsafe partial class TokenTable
             }
         }
         for (int c = 1; c < Buckets; c++) next[c] = end[c];
-        // the block now belongs to the records: the table lets go of it and frees the rest
+        return keys;
+    }
+
+    /// <summary>
+    /// Each entry turned into its sort record where it lies (both 40 bytes; short keys only, so no record reads the
+    /// arena), and the block handed over to the caller: the table frees the rest and is empty afterwards.
+    /// </summary>
+    private SortKey* TakeEntriesAsRecords()
+    {
+        int n = _count;
+        var records = (SortKey*)_entries;
+        for (int i = 0; i < n; i++)
+        {
+            var r = RecordOf(_entries[i], i); // the whole entry read before its record overwrites it
+            records[i] = r;
+        }
         _entries = null;
         _entryCap = 0;
         FreeAll();
-        return keys;
+        return records;
     }
 
     /// <summary>

@@ -29,7 +29,7 @@ public sealed partial class TailSearch
     /// <summary>
     /// Exact lower bound on candidate i's KS distance at its fitted α̂, from one ζ evaluation at the Newton start α₀;
     /// the candidate is dropped when the bound reaches <paramref name="giveUp"/> (it could not beat the best so far).
-    /// Returns true when dropped, with <paramref name="upward"/> the side of α̂ tested; a candidate kept gets in
+    /// Returns true when dropped; a candidate kept gets in
     /// <paramref name="atStart"/> ln ζ with its ratios at the start when they are the fit's first iteration (else NaN).
     /// </summary>
     /// <remarks>
@@ -53,13 +53,11 @@ public sealed partial class TailSearch
     /// own. Points are tried where the previous candidate's bound was reached (neighbouring tails share all but one
     /// value), then at offsets 0, 1, 3, 7, … from the candidate, at most <see cref="ScreenPoints"/>.
     /// </remarks>
-    private bool Screen(int i, double a0, double giveUp, ref ScreenMemo memo, out bool upward, out LogZeta atStart)
+    private bool Screen(int i, double a0, double giveUp, ref ScreenMemo memo, out LogZeta atStart)
     {
-        upward = false;
         atStart = new LogZeta(double.NaN, double.NaN, double.NaN);
         if (ScreenAt(i, a0, out var z0, out var p, out double slack))
         {
-            upward = p.Up;
             double limit = giveUp + ScreenMargin + slack;
             ref int remembered = ref p.Both ? ref memo.Both : ref p.Up ? ref memo.Up : ref memo.Down;
             if (remembered > i && remembered < _k && p.Deviation(remembered) >= limit) return true;

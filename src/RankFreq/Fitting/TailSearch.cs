@@ -664,7 +664,7 @@ public sealed partial class TailSearch
                     LogZeta? first = null;
                     if (double.IsFinite(bestD) && i < _k - 1)
                     {
-                        if (Screen(i, start, giveUp, ref memo, out _, out var atStart)) { screened = true; continue; }
+                        if (Screen(i, start, giveUp, ref memo, out var atStart)) { screened = true; continue; }
                         if (!double.IsNaN(atStart.Ln)) first = atStart;
                     }
                     f = FitCore(i, start, 0, first, out lnZeta);
