@@ -43,15 +43,19 @@ internal sealed class SpectrumBuffer
         long lo = long.MaxValue;
         foreach (var x in xs) lo = Math.Min(lo, x);
         int width = 2 * xs.Length + 64;
-        var hist = Histogram(width);
+        // one cell more than the histogram: the far values count there (never read), so the loop has no branch on
+        // which side a value falls, only a conditional step of the far values' write position
+        var hist = Histogram(width + 1);
         int far = 0;
-        long farMax = 0;
         foreach (var x in xs)
         {
             ulong d = (ulong)(x - lo);
-            if (d < (ulong)width) hist[(int)d]++;
-            else { xs[far++] = x; farMax = Math.Max(farMax, x); } // in place: far ≤ the index being read
+            hist[(int)Math.Min(d, (ulong)width)]++;
+            xs[far] = x; // in place: far ≤ the index being read
+            far += d >= (ulong)width ? 1 : 0;
         }
+        long farMax = 0;
+        foreach (var x in xs[..far]) farMax = Math.Max(farMax, x);
         Reserve(Count + xs.Length);
         // the smallest value (its cell is not empty) through Add, which joins it to an equal last value held; every
         // later value is larger than all before it, or (far values) repeats its predecessor
