@@ -531,10 +531,19 @@ public sealed partial class TailSearch
     /// </remarks>
     private bool NoneAtCap(int minTail)
     {
-        int candidates = 0;
-        while (candidates < _k - 2 && _nSuffix[candidates] >= minTail) candidates++;
+        int candidates = CandidateCount(minTail);
         // each tail checked as the suffix sums are made (the constructor), lowest failing index kept
         return candidates > 0 && _firstAtCapRisk >= candidates;
+    }
+
+    /// <summary>The xmin candidates: the first indices, at most k − 2 of them (three distinct values left), whose tails
+    /// hold at least <paramref name="minTail"/> types — found by binary search, as the tail counts fall with the index
+    /// (every multiplicity is at least 1), where a replicate's search had stepped through ~10^4 of them twice.</summary>
+    private int CandidateCount(int minTail)
+    {
+        int lo = 0, hi = Math.Max(0, _k - 2);
+        while (lo < hi) { int mid = (lo + hi) >> 1; if (_nSuffix[mid] >= minTail) lo = mid + 1; else hi = mid; }
+        return lo;
     }
 
     /// <summary>Upper bound on E_30[ln(X/v)] for the power law with α = 30 on x ≥ v (see <see cref="NoneAtCap"/>); from
@@ -614,8 +623,7 @@ public sealed partial class TailSearch
         bool decide = double.IsFinite(level);
         int bestI = -1;
         bool anyInterior = false;
-        int candidates = 0;
-        while (candidates < _k - 2 && _nSuffix[candidates] >= minTail) candidates++;
+        int candidates = CandidateCount(minTail);
         // Full scan: candidates in order, each abandoned once its distance reaches the best so far. Pruned: a sample of
         // every stride-th candidate first, so that the best distance is small early and the rest are abandoned sooner;
         // ties go to the lower index as in the full scan (a lower-index candidate is abandoned only above the best).
