@@ -89,8 +89,9 @@ public static class BinomialSampler
         double vr = 0.92 - 4.2 / b;
         double alpha = (2.83 + 5.1 / b) * spq;
         double m = Math.Floor((n + 1) * p);
-        double h = StirlingTail(m) + StirlingTail(n - m);
-        double g = Math.Log(p / (1 - p) * ((n - m + 1) / (m + 1)));   // ~1/n: the slope of ln f at the mode
+        // the constants of the exact ratio test, made at the first variate the squeeze does not accept (most draws end
+        // at the squeeze; the same values whenever they are made)
+        double h = double.NaN, g = double.NaN;
         while (true)
         {
             double u = rng.NextDouble() - 0.5;
@@ -99,6 +100,11 @@ public static class BinomialSampler
             double k = Math.Floor((2 * a / us + b) * u + c);
             if (k < 0 || k > n) continue;
             if (us >= 0.07 && v <= vr) return (long)k;
+            if (double.IsNaN(h))
+            {
+                h = StirlingTail(m) + StirlingTail(n - m);
+                g = Math.Log(p / (1 - p) * ((n - m + 1) / (m + 1)));   // ~1/n: the slope of ln f at the mode
+            }
             v = Math.Log(v * alpha / (a / (us * us) + b));
             // ln f(k)/f(m) for the binomial pmf f through Stirling's formula with its remainder, written with
             // d = k − m as log1p terms so that nothing of size n·ln n cancels (n reaches 10^9 and more)

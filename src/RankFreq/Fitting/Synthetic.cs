@@ -98,7 +98,27 @@ internal static class Synthetic
         var counts = buf.Histogram(plan.To - plan.Split);
         var cellOf = plan.CellOf;
         ulong types = (ulong)cellOf.Length;
-        for (long p = 0; p < remaining; p++) counts[cellOf[UniformBelow(rng, types)]]++;
+        ulong reject = (0 - types) % types; // Lemire's threshold (UniformBelow), computed once
+        // the points in batches: the batch's 64-bit numbers drawn in one run, each point's type taken from them in
+        // order exactly as UniformBelow takes them one call at a time (a rejected number, probability < types/2^64,
+        // passes to the next number for the same point), then the cells counted in a second loop whose reads do not
+        // wait on the generator. Never more numbers are drawn than UniformBelow would: each point takes at least one.
+        Span<ulong> raw = stackalloc ulong[256];
+        Span<int> picked = stackalloc int[256];
+        for (long left = remaining; left > 0;)
+        {
+            var batch = raw[..(int)Math.Min(left, raw.Length)];
+            rng.Fill(batch);
+            int got = 0;
+            foreach (ulong r in batch)
+            {
+                ulong hi = Math.BigMul(r, types, out ulong lo);
+                if (lo < reject) continue; // UniformBelow's rejection: lo < types and lo < the threshold, which is < types
+                picked[got++] = (int)hi;
+            }
+            foreach (int t in picked[..got]) counts[cellOf[t]]++;
+            left -= got;
+        }
         for (int c = 0; c < counts.Length; c++)
             if (counts[c] != 0) buf.Add(v[plan.Split + c], counts[c]);
     }

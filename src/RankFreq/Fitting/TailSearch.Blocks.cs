@@ -82,12 +82,15 @@ public sealed partial class TailSearch
     /// tolerance; false when it cannot be verified.</summary>
     private bool BlockBracket(int a, int b, double offset, out double aL, out double aU)
     {
+        // the run's largest and smallest mean of ln x (never NaN: every candidate's tail holds types)
         double mx = double.NegativeInfinity, mn = double.PositiveInfinity;
-        for (int i = a; i <= b; i++)
+        var lnSuffix = _lnSuffix.AsSpan(a, b - a + 1);
+        var nSuffix = _nSuffix.AsSpan(a, lnSuffix.Length);
+        for (int t = 0; t < lnSuffix.Length; t++)
         {
-            double mean = _lnSuffix[i] / _nSuffix[i];
-            mx = Math.Max(mx, mean);
-            mn = Math.Min(mn, mean);
+            double mean = lnSuffix[t] / nSuffix[t];
+            if (mean > mx) mx = mean;
+            if (mean < mn) mn = mean;
         }
         double off = double.IsNaN(offset) ? 0 : offset;
         aL = 1 + 1 / (mx - LnHalfOf(_v[a])) + off - BlockStep;
@@ -134,7 +137,10 @@ public sealed partial class TailSearch
             double tUp = Math.Exp((1 - _aL) * (LnHalfOf(_s._v[j]) - _lnVb)) * _cL;
             double up = _s._nSuffix[j] * _invNa - tUp;
             double x1 = x + 1;
-            double tDown = Math.Exp((1 - _aU) * (Math.Log(x1) - _lnVaHalf)) * (1 + (_aU - 1) / (2 * x1));
+            // ln(v_j + 1) from the table where it has it (the same values as Math.Log)
+            long v1 = _s._v[j] + 1;
+            double lnX1 = (ulong)v1 < (ulong)LnSmall.Length ? LnSmall[v1] : Math.Log(x1);
+            double tDown = Math.Exp((1 - _aU) * (lnX1 - _lnVaHalf)) * (1 + (_aU - 1) / (2 * x1));
             double down = tDown - _s._nSuffix[j + 1] * _invNb;
             return Math.Max(up, down);
         }

@@ -78,17 +78,33 @@ public sealed partial class TailSearch
         }
         _nSuffix[count] = 0;
         _lnSuffix[count] = 0;
+        // one pass from the top (a bootstrap replicate makes a search of ~10^4 values each time): running sums and the
+        // cap check in locals, over spans of exactly count values, so nothing is reloaded or spilled per value
         var lnSmall = LnSmall;
+        var capSmall = CapLimitSmall;
+        var vs = values.AsSpan(0, count);
+        var ms = mult.AsSpan(0, count);
+        var lnV = _lnV.AsSpan(0, count);
+        var nSuffix = _nSuffix.AsSpan(0, count);
+        var lnSuffix = _lnSuffix.AsSpan(0, count);
+        long nRun = 0;
+        double lnRun = 0;
+        int atRisk = int.MaxValue;
         for (int i = count - 1; i >= 0; i--)
         {
-            long x = values[i];
-            _lnV[i] = (ulong)x < (ulong)lnSmall.Length ? lnSmall[x] : Math.Log(x);
-            _nSuffix[i] = _nSuffix[i + 1] + mult[i];
-            _lnSuffix[i] = _lnSuffix[i + 1] + mult[i] * _lnV[i];
+            long x = vs[i];
+            double l = (ulong)x < (ulong)lnSmall.Length ? lnSmall[x] : Math.Log(x);
+            lnV[i] = l;
+            nRun += ms[i];
+            lnRun += ms[i] * l;
+            nSuffix[i] = nRun;
+            lnSuffix[i] = lnRun;
             // the cap check of NoneAtCap without a division: mean excess of ln x over ln v_i against its bound
-            double n = _nSuffix[i];
-            if (!(_lnSuffix[i] - n * _lnV[i] > n * CapExcessLimit(x))) _firstAtCapRisk = i;
+            double n = nRun;
+            double limit = (ulong)x < (ulong)capSmall.Length ? capSmall[x] : CapLimitLarge;
+            if (!(lnRun - n * l > n * limit)) atRisk = i;
         }
+        _firstAtCapRisk = atRisk;
     }
 
     /// <summary>ln k for k &lt; 2^15, the same values as Math.Log (a replicate's spectrum is mostly such values; one
@@ -515,10 +531,19 @@ public sealed partial class TailSearch
     /// </remarks>
     private bool NoneAtCap(int minTail)
     {
-        int candidates = 0;
-        while (candidates < _k - 2 && _nSuffix[candidates] >= minTail) candidates++;
+        int candidates = CandidateCount(minTail);
         // each tail checked as the suffix sums are made (the constructor), lowest failing index kept
         return candidates > 0 && _firstAtCapRisk >= candidates;
+    }
+
+    /// <summary>The xmin candidates: the first indices, at most k − 2 of them (three distinct values left), whose tails
+    /// hold at least <paramref name="minTail"/> types — found by binary search, as the tail counts fall with the index
+    /// (every multiplicity is at least 1), where a replicate's search had stepped through ~10^4 of them twice.</summary>
+    private int CandidateCount(int minTail)
+    {
+        int lo = 0, hi = Math.Max(0, _k - 2);
+        while (lo < hi) { int mid = (lo + hi) >> 1; if (_nSuffix[mid] >= minTail) lo = mid + 1; else hi = mid; }
+        return lo;
     }
 
     /// <summary>Upper bound on E_30[ln(X/v)] for the power law with α = 30 on x ≥ v (see <see cref="NoneAtCap"/>); from
@@ -526,9 +551,9 @@ public sealed partial class TailSearch
     internal static double CapExcessBound(long v) =>
         (ulong)v < (ulong)CapBoundSmall.Length ? CapBoundSmall[v] : 1.0 / 64 + 1.0 / 28;
 
-    /// <summary><see cref="CapExcessBound"/> plus a margin of 1e-9 for the rounding of the suffix sums.</summary>
-    private static double CapExcessLimit(long v) =>
-        (ulong)v < (ulong)CapLimitSmall.Length ? CapLimitSmall[v] : 1.0 / 64 + 1.0 / 28 + 1e-9;
+    /// <summary><see cref="CapExcessBound"/> plus a margin of 1e-9 for the rounding of the suffix sums, from v = 64
+    /// on (below, <see cref="CapLimitSmall"/>); the constructor checks every tail against it.</summary>
+    private const double CapLimitLarge = 1.0 / 64 + 1.0 / 28 + 1e-9;
 
 
     /// <summary>Upper bounds on E_30[ln(X/v)] over x ≥ v for v &lt; 64 (see <see cref="NoneAtCap"/>): the sum, with a
@@ -598,8 +623,7 @@ public sealed partial class TailSearch
         bool decide = double.IsFinite(level);
         int bestI = -1;
         bool anyInterior = false;
-        int candidates = 0;
-        while (candidates < _k - 2 && _nSuffix[candidates] >= minTail) candidates++;
+        int candidates = CandidateCount(minTail);
         // Full scan: candidates in order, each abandoned once its distance reaches the best so far. Pruned: a sample of
         // every stride-th candidate first, so that the best distance is small early and the rest are abandoned sooner;
         // ties go to the lower index as in the full scan (a lower-index candidate is abandoned only above the best).
@@ -626,6 +650,9 @@ public sealed partial class TailSearch
             {
                 if (pass > 0 && (i == first0 || pass == 2 && rem == 0)) continue;
                 double giveUp = i < bestI ? Math.BitIncrement(bestD) : bestD;
+                // the last candidates (a few hundred types in the tail) at once from one jump of the CDF, no ζ
+                // (TailSearch.Screen.cs, JumpDrops)
+                if (!full && double.IsFinite(bestD) && JumpDrops(i, giveUp)) { screened = true; JumpDropped++; continue; }
                 // runs of consecutive candidates dropped at once (TailSearch.Blocks.cs); the run may hold candidates
                 // already visited (the sample, the first): a bound that holds for all drops nothing they decided
                 if (!full && step == 1 && i >= blocks.Resume && _v[i] >= BlockFrom && double.IsFinite(bestD))

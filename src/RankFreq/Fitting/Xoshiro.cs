@@ -35,6 +35,21 @@ public sealed class Xoshiro
         return result;
     }
 
+    /// <summary>The next <c>into.Length</c> values of <see cref="NextUInt64"/>, in order (the state kept in registers
+    /// for the whole run instead of in the object between calls).</summary>
+    internal void Fill(Span<ulong> into)
+    {
+        ulong s0 = _s0, s1 = _s1, s2 = _s2, s3 = _s3;
+        for (int i = 0; i < into.Length; i++)
+        {
+            into[i] = ulong.RotateLeft(s1 * 5, 7) * 9;
+            ulong t = s1 << 17;
+            s2 ^= s0; s3 ^= s1; s1 ^= s2; s0 ^= s3; s2 ^= t;
+            s3 = ulong.RotateLeft(s3, 45);
+        }
+        _s0 = s0; _s1 = s1; _s2 = s2; _s3 = s3;
+    }
+
     /// <summary>Uniform on [0, 1).</summary>
     public double NextDouble() => (NextUInt64() >> 11) * (1.0 / (1UL << 53));
 

@@ -38,7 +38,7 @@ public class SearchScreenTests
     {
         // exactness of the screen (TailSearch.Screen.cs remarks): the same status, xmin, α (to the Newton tolerance)
         // and KS distance as the unscreened point-by-point scan, on 120 word-count-like spectra and several --min-tail
-        long dropped = 0;
+        long dropped = 0, jumped = 0;
         for (ulong seed = 1; seed <= 120; seed++)
         {
             var buf = ZipfLike(seed);
@@ -46,9 +46,12 @@ public class SearchScreenTests
             int minTail = seed % 3 == 0 ? 5 : 50;
             XminSearchTests.AssertSameFit(s.SearchFullScan(minTail), s.Search(minTail), seed);
             dropped += s.BlockDropped;
+            jumped += s.JumpDropped;
         }
-        // the runs dropped at once by the block screen (TailSearch.Blocks.cs) were part of what was compared
+        // the runs dropped at once by the block screen (TailSearch.Blocks.cs) and the last candidates dropped by the
+        // jump at the largest value (JumpDrops) were part of what was compared
         Assert.True(dropped > 10_000, $"only {dropped} candidates were dropped in runs");
+        Assert.True(jumped > 1_000, $"only {jumped} candidates were dropped by the jump bound");
     }
 
     [Fact]
@@ -118,6 +121,34 @@ public class SearchScreenTests
             }
         }
         Assert.True(tested > 300, $"only {tested} bounds were verified");
+        Assert.True(useful > tested / 4, $"only {useful} of {tested} bounds reach 0.002");
+    }
+
+    [Fact]
+    public void JumpBoundNeverExceedsTheDistanceAtTheFittedAlpha()
+    {
+        // the bound from the CDF's jump at the largest value (TailSearch.Screen.cs, JumpDrops), which holds for every
+        // α at once: never above the KS distance at the fitted α (point by point), for the last 400 candidates of each
+        // spectrum (where it is meant to bite) and a sample of the others; and above a typical best distance for many
+        int tested = 0, useful = 0;
+        for (ulong seed = 1; seed <= 30; seed++)
+        {
+            var buf = ZipfLike(seed);
+            var s = new TailSearch(buf.Values, buf.Mult, buf.Count);
+            int last = buf.Count - 3;
+            for (int i = 0; i <= last; i += i < last - 400 ? 1 + buf.Count / 30 : 1)
+            {
+                var f = s.FitAt(i);
+                if (f.Status is not (FitStatus.Ok or FitStatus.AtBound)) continue;
+                double bound = s.JumpBound(i);
+                if (double.IsNaN(bound)) continue;
+                double d = s.KsFullScan(i, f.Alpha);
+                tested++;
+                Assert.True(bound <= d, $"seed {seed}, candidate {i} (tail {f.NTail}): bound {bound:R} > KS {d:R}");
+                if (bound >= 0.002) useful++;
+            }
+        }
+        Assert.True(tested > 5_000, $"only {tested} bounds were verified");
         Assert.True(useful > tested / 4, $"only {useful} of {tested} bounds reach 0.002");
     }
 

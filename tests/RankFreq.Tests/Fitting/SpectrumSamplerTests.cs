@@ -202,6 +202,59 @@ public class SpectrumSamplerTests
     }
 
     [Fact]
+    public void PlannedMultinomialTakesTheSameNumbersAsOnePointAtATime()
+    {
+        // the suffix's points are drawn in batches (Synthetic.Multinomial with a plan): the same spectrum, and the same
+        // numbers left in the generator, as the head's binomials followed by one UniformBelow call per point, for draws
+        // of fewer points than a batch and of many batches
+        long[] v = Enumerable.Range(1, 3000).Select(i => (long)i).ToArray();
+        long[] m = v.Select(x => 1 + 2_000_000L / (x * x)).ToArray();
+        var plan = new MultinomialPlan(v, m, 0, v.Length);
+        foreach (long n in new[] { m.Sum(), m.Sum() / 3, 7L, 300L })
+            for (ulong seed = 1; seed <= 20; seed++)
+            {
+                var got = new SpectrumBuffer();
+                var rng = new Xoshiro(seed, 2, 0);
+                Synthetic.Multinomial(rng, plan, n, got);
+                var want = new SpectrumBuffer();
+                var reference = new Xoshiro(seed, 2, 0);
+                double mass = plan.Mass;
+                long remaining = n;
+                int j = plan.From;
+                for (; j < plan.Split && remaining > 0; j++)
+                {
+                    long k = j == plan.To - 1 ? remaining : BinomialSampler.Draw(reference, remaining, Math.Min(1, m[j] / mass));
+                    want.Add(v[j], k);
+                    remaining -= k;
+                    mass -= m[j];
+                }
+                if (remaining > 0 && j < plan.To)
+                {
+                    var counts = new long[plan.To - plan.Split];
+                    for (long p = 0; p < remaining; p++)
+                        counts[plan.CellOf[Synthetic.UniformBelow(reference, (ulong)plan.CellOf.Length)]]++;
+                    for (int c = 0; c < counts.Length; c++)
+                        if (counts[c] != 0) want.Add(v[plan.Split + c], counts[c]);
+                }
+                Assert.Equal(want.Values.AsSpan(0, want.Count).ToArray(), got.Values.AsSpan(0, got.Count).ToArray());
+                Assert.Equal(want.Mult.AsSpan(0, want.Count).ToArray(), got.Mult.AsSpan(0, got.Count).ToArray());
+                Assert.Equal(reference.NextUInt64(), rng.NextUInt64());
+            }
+    }
+
+    [Fact]
+    public void FillGivesTheNumbersOfNextUInt64InOrder()
+    {
+        var a = new Xoshiro(9, 3, 4);
+        var b = new Xoshiro(9, 3, 4);
+        var run = new ulong[1000];
+        a.Fill(run.AsSpan(0, 1));
+        a.Fill(run.AsSpan(1));
+        foreach (ulong x in run) Assert.Equal(b.NextUInt64(), x);
+        Assert.Equal(b.NextUInt64(), a.NextUInt64());
+    }
+
+    [Fact]
     public void UniformBelowIsUniform()
     {
         // Lemire's bounded integers against the uniform law on 7 cells (an s that does not divide 2^64)
