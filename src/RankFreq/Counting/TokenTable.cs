@@ -195,8 +195,15 @@ internal sealed unsafe partial class TokenTable : IDisposable
 
     private long SlotBytes => (long)_slotCount << _slotShift;
 
-    /// <summary>The log2 of the slot size after the next growth (wide slots turn narrow past WideMaxSlots).</summary>
-    private int NextShift => 2L * _slotCount > WideMaxSlots ? NarrowShift : _slotShift;
+    /// <summary>
+    /// The log2 of the slot size after the next growth: wide slots turn narrow past <see cref="WideMaxSlots"/>, or
+    /// earlier under a <see cref="GrowthLimit"/>. They stay wide only if the growth after this one could still turn
+    /// them narrow within the limit (old wide and new narrow arrays side by side, the entries doubled once more), so a
+    /// table under a small budget holds as many types before it spills as one that was narrow throughout.
+    /// </summary>
+    private int NextShift => _slotShift == NarrowShift || 2L * _slotCount > WideMaxSlots
+        || (2L * _slotCount << (WideShift + 1)) + 2 * ((long)_entryCap * sizeof(Entry) + _arenaBytes) > GrowthLimit
+        ? NarrowShift : WideShift;
 
     /// <summary>
     /// Bytes the table would hold at the peak of its next growth (the old and the doubled slot arrays side by side).

@@ -187,6 +187,25 @@ public class CountingTests
     }
 
     [Fact]
+    public void UnderAGrowthLimitWideSlotsTurnNarrowBeforeTheyCostTypes()
+    {
+        // Wide slots take twice the bytes of narrow ones: under a growth limit (a worker's share of a budget) they
+        // must turn narrow at the growth that would pass the limit, so the table holds as many types before it asks
+        // to be spilled as one that turned narrow at its first growth. Otherwise a budgeted count writes more runs.
+        const long Limit = 6L << 20;
+        int HeldBeforeSpill(int wideMaxSlots)
+        {
+            using var t = new TokenTable { GrowthLimit = Limit, WideMaxSlots = wideMaxSlots };
+            for (long i = 0; !t.OverLimit; i++) t.Add(BitConverter.GetBytes(i * 2654435761L), 1, 0);
+            Assert.True(t.GrowthPeakBytes > Limit);
+            return t.Count;
+        }
+        int narrowEarly = HeldBeforeSpill(1 << 12);
+        Assert.True(narrowEarly > 50_000, $"{narrowEarly} types");
+        Assert.Equal(narrowEarly, HeldBeforeSpill(1 << 19));
+    }
+
+    [Fact]
     public void OccurrencesFromEarlierWorkUnitsLowerFirstPositionsOnTheRoutedPath()
     {
         // Routed counting feeds one table from several threads, so a type may be seen in unit 7 before unit 3; its
