@@ -15,9 +15,11 @@ internal static class BenchmarkTools
         if (args is ["make-spectrum", var path]) return MakeSpectrum(path);
         if (args is ["make-highcard", .. var rest]) return HighCardinalityText.Run(rest);
         if (args is ["table-hash", var table]) return TableHash.Run(table);
+        if (args is ["table-replay", .. var replay]) return TableReplay.Run(replay);
         Console.Error.WriteLine(Usage);
         Console.Error.WriteLine("       RankFreq.Benchmarks " + HighCardinalityText.Usage);
         Console.Error.WriteLine("       RankFreq.Benchmarks " + TableHash.Usage);
+        Console.Error.WriteLine("       RankFreq.Benchmarks " + TableReplay.Usage);
         return 2;
     }
 

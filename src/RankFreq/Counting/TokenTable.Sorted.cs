@@ -267,7 +267,7 @@ internal sealed unsafe partial class TokenTable
     internal void FreeSlots()
     {
         if (_dirty) SyncCounts();
-        NativeBlock.Free(_slots, (long)_slotCount * sizeof(Slot));
+        NativeBlock.Free(_slots, SlotBytes);
         _slots = null;
         _slotCount = 0;
     }

@@ -9,33 +9,98 @@ using RankFreq.Primitives;
 namespace RankFreq.Counting;
 
 /// <summary>
-/// Exact counts keyed on UTF-8 bytes: open addressing (linear probing, load at most 1/2) over 16-byte slots that
-/// hold 32 bits of the key's hash (the tag, whose low bits are also the home slot, so growth never reads the
-/// entries), a 32-bit count and the entry index. Each type has an entry holding a key of up to 16 bytes inline as two
-/// zero-padded words (longer keys: an arena reference and the 64-bit hash, the bytes in the arena's 1 MiB pages), its
-/// length, vocabulary id and the first position it was seen, packed as (work unit, token offset), so vocabulary
-/// growth can be read off exactly.
+/// Exact counts keyed on UTF-8 bytes: open addressing (linear probing, load at most 1/2) over slots that hold the
+/// key itself where it fits (up to 16 bytes in a 32-byte wide slot, up to 8 in a 16-byte narrow one; any other key's
+/// 64-bit hash, so growth never reads the entries), the key's length, a 27-bit count and the entry index. Each type has
+/// an entry holding a key of up to 16 bytes inline as two zero-padded words (longer keys: an arena reference and the
+/// 64-bit hash, the bytes in the arena's 1 MiB pages), its length, vocabulary id and the first position it was seen,
+/// packed as (work unit, token offset), so vocabulary growth can be read off exactly.
 /// </summary>
 /// <remarks>
-/// A hit compares the tag first and then the entry's key words: a present key costs the slot's line and the entry's,
-/// a new key only the slots it probes (a tag matches a different key with odds of about 2^-(32 - log2 slots) per
-/// probe). Slots of 16 bytes at a load of at most 1/2 and 40-byte entries hold a type in about 72–104 bytes, where
-/// 32-byte slots with the key inline had taken 96–160 plus the key bytes in the arena.
-/// Counts live in the slots while counting (32 bits, folded into the entry before they would wrap); <see
-/// cref="Entries"/> folds them into the entries when read. The slot also keeps the work unit of the type's first
-/// position: one feeder's positions only increase within a work unit, and a unit is read by one thread, so an
-/// occurrence can lower the first position only when it comes from an earlier unit — then, and only then, the entry is
-/// touched. That keeps first positions exact when several threads feed one table in any order (routed counting).
+/// A hit of a key the slot holds is confirmed by the slot alone and costs one cache line; any other key is compared
+/// with its entry once the slot's hash matches. A new key costs only the slots it probes. Slots are wide while the
+/// table is small (up to <see cref="WideMaxSlots"/> slots, about 262,000 types: every word of a natural-language
+/// vocabulary is then confirmed in its slot) and turn narrow with the growth past it, at an unchanged block size, so
+/// a type of a large table takes about 72–104 bytes (16-byte slots at a load of at most 1/2 and a 40-byte entry).
+/// Counts live in the slots while counting (folded into the entry when they reach <see cref="FoldAt"/>);
+/// <see cref="Entries"/> folds them into the entries when read. First positions stay exact without a look at the
+/// entry on every hit: one feeder's positions only increase within a work unit, and a unit is read by one thread, so
+/// an occurrence can lower a type's first position only when it comes from a unit earlier than that first one. The
+/// table keeps the latest unit of any first position it holds; an occurrence from that unit or a later one is counted
+/// in the slot, an earlier one (routed counting, where several threads feed one table) goes through the entry. A
+/// table fed by one thread meets its units in increasing order and never takes that path.
 /// </remarks>
 internal sealed unsafe partial class TokenTable : IDisposable
 {
     internal struct Slot
     {
-        public uint Tag;     // the hash's low 32 bits; its low bits are the home slot
-        public uint Count;   // occurrences not yet folded into the entry's count (folded before it would wrap)
-        public int Unit;     // work unit of the type's first position (the entry holds the whole position)
-        public int Entry;    // entry index + 1; 0 = empty
+        public ulong Key;    // a key held in the slot: its bytes 0-7 (zero-padded); any other key: its 64-bit hash
+        public ulong Word;   // count (bits 0-26), length code (27-31), entry index + 1 (32-63); 0 = an empty slot
+        // a wide slot (32 bytes) follows with the key's bytes 8-15 and 8 unused bytes
     }
+
+    // the slot's word: occurrences not yet folded into the entry (folded before they pass CountMask), the length of a
+    // key held in the slot (LongCode for any other key: the slot's key is then its hash) and the entry index + 1
+    private const ulong CountMask = (1UL << 27) - 1;
+    private const int CodeShift = 27;
+    private const ulong CodeMask = 31UL << CodeShift;
+    private const ulong LongCode = 31;
+    private const int EntryShift = 32;
+
+    // Slots are wide (32 bytes: keys of up to 16 bytes held whole) while the table has at most WideMaxSlots slots and
+    // narrow (16 bytes: keys of up to 8 bytes held whole) beyond, where memory per type matters more than the entry
+    // reads of 9- to 16-byte keys. The switch comes with the growth past WideMaxSlots, at an unchanged block size.
+    private const int WideShift = 5, NarrowShift = 4;
+
+    /// <summary>
+    /// The most slots a table keeps wide: 2^19 (16 MiB of slots, about 262,000 types); lower only in tests, so the
+    /// switch to narrow slots is exercised on small tables.
+    /// </summary>
+    internal int WideMaxSlots { get; init; } = 1 << 19;
+
+    /// <summary>The length code of a key of <paramref name="len"/> bytes, in place in the slot's word.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static ulong CodeOf(int len, int held) => (len <= held ? (ulong)len : LongCode) << CodeShift;
+
+    /// <summary>
+    /// The slot's key for a key of <paramref name="len"/> bytes with packed first word <paramref name="a"/> and hash
+    /// <paramref name="h"/>: its first word when the slot holds it (up to <paramref name="held"/> bytes), else its hash.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static ulong SlotKeyOf(ulong a, ulong h, int len, int held) => len <= held ? a : h;
+
+    /// <summary>The hash of an occupied slot's key (recomputed for a key the slot holds).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static ulong HashOf(Slot* s)
+    {
+        int code = (int)((s->Word & CodeMask) >> CodeShift);
+        if (code == (int)LongCode) return s->Key;
+        return KeyPacking.Mix(s->Key, code > 8 ? SecondWord(s) : 0, code);
+    }
+
+    /// <summary>Key bytes 8-15 held in a wide slot.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static ref ulong SecondWord(Slot* s) => ref ((ulong*)s)[2];
+
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private Slot* SlotAt(int i) => (Slot*)((byte*)_slots + ((nint)i << _slotShift));
+
+    /// <summary>
+    /// The slot count at which a slot's count is folded into its entry; below <see cref="CountMask"/> only in tests,
+    /// so the fold is exercised without billions of occurrences.
+    /// </summary>
+    internal uint FoldAt { get; set; } = (uint)CountMask;
+
+    /// <summary>The largest count held in a slot and not yet folded into its entry (for tests).</summary>
+    internal uint LargestSlotCount()
+    {
+        uint most = 0;
+        for (int i = 0; i < _slotCount; i++) most = Math.Max(most, (uint)(SlotAt(i)->Word & CountMask));
+        return most;
+    }
+
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static int EntryOf(ulong word) => (int)(word >> EntryShift) - 1;
 
     internal struct Entry
     {
@@ -59,12 +124,15 @@ internal sealed unsafe partial class TokenTable : IDisposable
     private int _pagePos;
     private Slot* _slots;
     private int _slotCount;
+    private int _slotShift; // log2 of the slot size: WideShift or NarrowShift
+    private int _held;      // the longest key a slot holds whole: 16 in wide slots, 8 in narrow ones
     private Entry* _entries;
     private int _entryCap;
     private int _count;
     private long _arenaBytes;
     private long _keyBytes;
     private bool _dirty;
+    private int _unitFloor; // the latest work unit of any type's first position: no earlier occurrence can lower one
 
     /// <summary>An empty table.</summary>
     public TokenTable() => Init();
@@ -75,7 +143,9 @@ internal sealed unsafe partial class TokenTable : IDisposable
     private void Init()
     {
         _slotCount = InitialSlots;
-        _slots = NewSlots(InitialSlots);
+        _slotShift = WideShift;
+        _held = 16;
+        _slots = NewSlots((long)InitialSlots << WideShift);
         _entryCap = InitialSlots / 2;
         _entries = (Entry*)NativeBlock.Alloc((long)_entryCap * sizeof(Entry));
         _pagePos = 0;
@@ -83,14 +153,14 @@ internal sealed unsafe partial class TokenTable : IDisposable
         _page = null;
     }
 
-    private static Slot* NewSlots(int n) =>
+    private static Slot* NewSlots(long bytes) =>
         // every page mapped for writing before it is probed: a fresh page that is read first maps the shared zero page,
         // and the later write then costs a copy-on-write fault with a TLB flush on every core
-        (Slot*)NativeBlock.AllocWritten((long)n * sizeof(Slot));
+        (Slot*)NativeBlock.AllocWritten(bytes);
 
     private void FreeAll()
     {
-        NativeBlock.Free(_slots, (long)_slotCount * sizeof(Slot));
+        NativeBlock.Free(_slots, SlotBytes);
         NativeBlock.Free(_entries, (long)_entryCap * sizeof(Entry));
         for (int i = 0; i < _pageCount; i++) NativeBlock.Free((void*)_pages[i], _pageSizes[i]);
         _slots = null;
@@ -102,6 +172,7 @@ internal sealed unsafe partial class TokenTable : IDisposable
         _entryCap = 0;
         _count = 0;
         _dirty = false;
+        _unitFloor = 0;
         _hasIds = false;
         _hasLongKeys = false;
     }
@@ -120,12 +191,24 @@ internal sealed unsafe partial class TokenTable : IDisposable
     public long KeyBytes => _keyBytes;
 
     /// <summary>Approximate bytes held (slots, entries and arena).</summary>
-    public long MemoryBytes => (long)_slotCount * sizeof(Slot) + (long)_entryCap * sizeof(Entry) + _arenaBytes;
+    public long MemoryBytes => SlotBytes + (long)_entryCap * sizeof(Entry) + _arenaBytes;
+
+    private long SlotBytes => (long)_slotCount << _slotShift;
+
+    /// <summary>
+    /// The log2 of the slot size after the next growth: wide slots turn narrow past <see cref="WideMaxSlots"/>, or
+    /// earlier under a <see cref="GrowthLimit"/>. They stay wide only if the growth after this one could still turn
+    /// them narrow within the limit (old wide and new narrow arrays side by side, the entries doubled once more), so a
+    /// table under a small budget holds as many types before it spills as one that was narrow throughout.
+    /// </summary>
+    private int NextShift => _slotShift == NarrowShift || 2L * _slotCount > WideMaxSlots
+        || (2L * _slotCount << (WideShift + 1)) + 2 * ((long)_entryCap * sizeof(Entry) + _arenaBytes) > GrowthLimit
+        ? NarrowShift : WideShift;
 
     /// <summary>
     /// Bytes the table would hold at the peak of its next growth (the old and the doubled slot arrays side by side).
     /// </summary>
-    public long GrowthPeakBytes => MemoryBytes + 2L * _slotCount * sizeof(Slot);
+    public long GrowthPeakBytes => MemoryBytes + (2L * _slotCount << NextShift);
 
     /// <summary>
     /// The most bytes the table may reach while growing (<see cref="GrowthPeakBytes"/>). When a growth would pass
@@ -163,12 +246,15 @@ internal sealed unsafe partial class TokenTable : IDisposable
     private void SyncCounts()
     {
         // a type seen once has its count in the entry already (the slot's is 0): no write into the entries for it
-        foreach (ref var s in new Span<Slot>(_slots, _slotCount))
-            if (s.Count != 0)
+        for (int i = 0; i < _slotCount; i++)
+        {
+            Slot* s = SlotAt(i);
+            if ((s->Word & CountMask) != 0)
             {
-                _entries[s.Entry - 1].Count += s.Count;
-                s.Count = 0;
+                _entries[EntryOf(s->Word)].Count += (long)(s->Word & CountMask);
+                s->Word &= ~CountMask;
             }
+        }
         _dirty = false;
     }
 
@@ -231,7 +317,7 @@ internal sealed unsafe partial class TokenTable : IDisposable
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     private void Prefetch(ulong h)
     {
-        if (Sse.IsSupported) Sse.Prefetch0(_slots + ((int)h & (_slotCount - 1)));
+        if (Sse.IsSupported) Sse.Prefetch0(SlotAt((int)h & (_slotCount - 1)));
     }
 
     /// <summary>How many tokens ahead of its probe a token's home slot is prefetched.</summary>
@@ -241,53 +327,71 @@ internal sealed unsafe partial class TokenTable : IDisposable
     private ulong HashAndPrefetch(in PackedToken t)
     {
         ulong h = KeyPacking.Mix(t.Lo, t.Hi, t.Length);
-        if (Sse.IsSupported) Sse.Prefetch0(_slots + ((int)h & (_slotCount - 1)));
+        if (Sse.IsSupported) Sse.Prefetch0(SlotAt((int)h & (_slotCount - 1)));
         return h;
     }
 
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     private void AddShortHashed(ulong a, ulong b, int len, ulong h, long first)
     {
-        Slot* slots = _slots;
-        Entry* entries = _entries;
+        // one probe loop per slot layout, each with its layout's constants folded in (the branch is predicted: the
+        // layout changes once in a table's life)
+        if (_slotShift == WideShift) AddShortIn(wide: true, a, b, len, h, first);
+        else AddShortIn(wide: false, a, b, len, h, first);
+    }
+
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private void AddShortIn(bool wide, ulong a, ulong b, int len, ulong h, long first)
+    {
+        byte* slots = (byte*)_slots;
+        int shift = wide ? WideShift : NarrowShift;
         int mask = _slotCount - 1;
-        uint tag = (uint)h;
-        int i = (int)tag & mask;
+        // a wide slot holds every key of up to 16 bytes (b is 0 for keys of up to 8), a narrow one up to 8 bytes
+        bool held = wide || len <= 8;
+        ulong key = held ? a : h;
+        ulong code = (held ? (ulong)len : LongCode) << CodeShift;
+        int i = (int)h & mask;
         while (true)
         {
-            Slot* s = slots + i;
-            if (s->Entry == 0) break;
-            if (s->Tag == tag)
+            Slot* s = (Slot*)(slots + ((nint)i << shift));
+            ulong w = s->Word;
+            if (w == 0) break;
+            // a key the slot holds is confirmed by the slot alone; a longer one, whose hash the slot holds, by its entry
+            if (s->Key == key && (w & CodeMask) == code
+                && (wide ? SecondWord(s) == b : len <= 8 || ShortKeyIs(EntryOf(w), a, b, len)))
             {
-                Entry* e = entries + (s->Entry - 1);
-                if (e->K0 == a && e->K1 == b && e->Len == len)
-                {
-                    // both rare: a count about to wrap, or an occurrence from an earlier work unit than the first seen
-                    if (s->Count == uint.MaxValue || (int)(first >> 40) < s->Unit) Bump(s, first);
-                    else s->Count++;
-                    _dirty = true;
-                    return;
-                }
+                // both rare: a count about to pass the fold point, or an occurrence from a work unit earlier than some
+                // type's first (then this type's first position may have to be lowered)
+                if ((uint)(w & CountMask) >= FoldAt || (int)(first >> 40) < _unitFloor) Bump(s, first);
+                else s->Word = w + 1;
+                _dirty = true;
+                return;
             }
             i = (i + 1) & mask;
         }
-        InsertShort(ref slots[i], a, b, len, h, first);
+        InsertShort(SlotAt(i), a, b, len, h, first);
+    }
+
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private bool ShortKeyIs(int entry, ulong a, ulong b, int len)
+    {
+        Entry* e = _entries + entry;
+        return e->K0 == a && e->K1 == b && e->Len == len;
     }
 
     /// <summary>One occurrence the hot path does not handle: folds the slot's count, lowers the first position.</summary>
     [MethodImpl(MethodImplOptions.NoInlining)]
     private void Bump(Slot* s, long first)
     {
-        ref Entry e = ref _entries[s->Entry - 1];
-        e.Count += s->Count + 1L;
-        s->Count = 0;
+        ref Entry e = ref _entries[EntryOf(s->Word)];
+        e.Count += (long)(s->Word & CountMask) + 1;
+        s->Word &= ~CountMask;
         if (first < e.First) e.First = first;
-        s->Unit = (int)(e.First >> 40);
     }
 
     [MethodImpl(MethodImplOptions.NoInlining)]
-    private void InsertShort(ref Slot s, ulong a, ulong b, int len, ulong h, long first) =>
-        Insert(ref s, a, b, h, len, default, 1, first, -1);
+    private void InsertShort(Slot* s, ulong a, ulong b, int len, ulong h, long first) =>
+        Insert(s, a, b, h, len, default, 1, first, -1);
 
     /// <summary>Adds <paramref name="count"/> occurrences, keeping the earliest first position.</summary>
     public void Add(ReadOnlySpan<byte> key, long count, long first, int id = -1)
@@ -305,27 +409,28 @@ internal sealed unsafe partial class TokenTable : IDisposable
     private void Upsert(ulong a, ulong b, ulong h, ReadOnlySpan<byte> key, long count, long first, int id)
     {
         int mask = _slotCount - 1;
-        uint tag = (uint)h;
-        int i = (int)tag & mask;
-        bool isShort = key.Length <= 16;
+        int len = key.Length;
+        ulong slotKey = SlotKeyOf(a, h, len, _held);
+        ulong code = CodeOf(len, _held);
+        int i = (int)h & mask;
         while (true)
         {
-            ref Slot s = ref _slots[i];
-            if (s.Entry == 0)
+            Slot* s = SlotAt(i);
+            if (s->Word == 0)
             {
-                Insert(ref s, a, b, h, key.Length, key, count, first, id);
+                Insert(s, a, b, h, len, key, count, first, id);
                 return;
             }
-            ref readonly Entry m = ref _entries[s.Entry - 1];
-            if (s.Tag == tag && m.Len == key.Length
-                && (isShort ? m.K0 == a && m.K1 == b : m.K1 == h && Key(in m).SequenceEqual(key)))
+            if (s->Key == slotKey && (s->Word & CodeMask) == code)
             {
-                ref Entry e = ref _entries[s.Entry - 1];
-                e.Count += count;
-                if (first < e.First) e.First = first;
-                s.Unit = (int)(e.First >> 40);
-                _dirty = true;
-                return;
+                ref Entry e = ref _entries[EntryOf(s->Word)];
+                if (len <= _held ? len <= 8 || SecondWord(s) == b
+                    : e.Len == len && (len <= 16 ? e.K0 == a && e.K1 == b : Key(in e).SequenceEqual(key)))
+                {
+                    e.Count += count;
+                    if (first < e.First) e.First = first;
+                    return;
+                }
             }
             i = (i + 1) & mask;
         }
@@ -336,7 +441,7 @@ internal sealed unsafe partial class TokenTable : IDisposable
     /// <paramref name="a"/>, <paramref name="b"/> (<paramref name="key"/> is not read), a longer one stored from
     /// <paramref name="key"/>.
     /// </summary>
-    private void Insert(ref Slot s, ulong a, ulong b, ulong h, int len, ReadOnlySpan<byte> key, long count, long first,
+    private void Insert(Slot* s, ulong a, ulong b, ulong h, int len, ReadOnlySpan<byte> key, long count, long first,
         int id)
     {
         if (_count == _entryCap)
@@ -354,11 +459,10 @@ internal sealed unsafe partial class TokenTable : IDisposable
         if (id != -1) _hasIds = true;
         _count++;
         _keyBytes += len;
-        s.Tag = (uint)h;
-        s.Count = 0; // the count is in the entry
-        s.Unit = (int)(first >> 40);
-        s.Entry = _count;
-        _dirty = true;
+        s->Key = SlotKeyOf(a, h, len, _held);
+        s->Word = ((ulong)_count << EntryShift) | CodeOf(len, _held); // the count is in the entry
+        if (_slotShift == WideShift) SecondWord(s) = len <= 16 ? b : 0;
+        if ((int)(first >> 40) > _unitFloor) _unitFloor = (int)(first >> 40);
         if ((long)_count * 2 > _slotCount)
         {
             // spill before growth: under a limit the table fills to 3/4 and waits for its owner to spill it
@@ -401,18 +505,33 @@ internal sealed unsafe partial class TokenTable : IDisposable
     private void Rehash()
     {
         int n = _slotCount * 2;
-        var ns = NewSlots(n);
+        int shift = NextShift;
+        var ns = (byte*)NewSlots((long)n << shift);
         int mask = n - 1;
-        foreach (ref readonly var s in new ReadOnlySpan<Slot>(_slots, _slotCount))
+        bool narrowing = shift != _slotShift;
+        for (int j = 0; j < _slotCount; j++)
         {
-            if (s.Entry == 0) continue;
-            int i = (int)s.Tag & mask;
-            while (ns[i].Entry != 0) i = (i + 1) & mask;
-            ns[i] = s;
+            Slot* s = SlotAt(j);
+            if (s->Word == 0) continue;
+            ulong h = HashOf(s);
+            int i = (int)h & mask;
+            while (((Slot*)(ns + ((nint)i << shift)))->Word != 0) i = (i + 1) & mask;
+            Slot* d = (Slot*)(ns + ((nint)i << shift));
+            d->Key = s->Key;
+            d->Word = s->Word;
+            if (shift == WideShift) SecondWord(d) = SecondWord(s);
+            else if (narrowing && (s->Word & CodeMask) >> CodeShift is > 8 and not LongCode)
+            {
+                // a 9- to 16-byte key leaves the slot: its hash takes the key's place, its entry holds the bytes
+                d->Key = h;
+                d->Word = (s->Word & ~CodeMask) | (LongCode << CodeShift);
+            }
         }
-        NativeBlock.Free(_slots, (long)_slotCount * sizeof(Slot));
-        _slots = ns;
+        NativeBlock.Free(_slots, SlotBytes);
+        _slots = (Slot*)ns;
         _slotCount = n;
+        _slotShift = shift;
+        _held = shift == WideShift ? 16 : 8;
     }
 
     /// <summary>Entry indices sorted by key bytes (ordinal), the order of a spill run.</summary>
@@ -554,7 +673,7 @@ internal sealed unsafe partial class TokenTable : IDisposable
     private ulong HashAndPrefetch(ReadOnlySpan<byte> key)
     {
         ulong h = KeyPacking.Hash(key);
-        if (Sse.IsSupported) Sse.Prefetch0(_slots + ((int)h & (_slotCount - 1)));
+        if (Sse.IsSupported) Sse.Prefetch0(SlotAt((int)h & (_slotCount - 1)));
         return h;
     }
 

@@ -1,3 +1,4 @@
+using System.Text;
 using System.Text.RegularExpressions;
 using RankFreq.Counting;
 using RankFreq.Storage;
@@ -51,12 +52,15 @@ public class CountingTests
         Assert.Empty(Directory.GetFileSystemEntries(d.Path)); // spill runs removed
     }
 
-    [Fact]
-    public void PackedAndSpanKeysMeetInOneEntry()
+    [Theory]
+    [InlineData(1 << 19)]
+    [InlineData(1 << 13)]
+    public void PackedAndSpanKeysMeetInOneEntry(int wideMaxSlots)
     {
         // AddShort (packed words, the hot path) and Add (bytes) must agree on every key length up to 16 and beyond,
-        // including keys that differ only by trailing zero bytes, and survive rehashing.
-        var t = new TokenTable();
+        // including keys that differ only by trailing zero bytes, and survive rehashing: in wide slots throughout,
+        // and with the switch to narrow slots (9- to 16-byte keys leave the slot) in the middle of the table's growth.
+        var t = new TokenTable { WideMaxSlots = wideMaxSlots };
         var keys = new List<byte[]>();
         var rng = new Random(5);
         for (int i = 0; i < 20_000; i++)
@@ -85,11 +89,14 @@ public class CountingTests
         }
     }
 
-    [Fact]
-    public void KeysWhoseSlotTagsCollideAreCountedApart()
+    [Theory]
+    [InlineData(1 << 19)]
+    [InlineData(1 << 13)]
+    public void KeysWhoseSlotTagsCollideAreCountedApart(int wideMaxSlots)
     {
-        // A slot keeps 32 bits of the hash (the tag) and the key lives in the entry: keys with equal tags share a home
-        // slot and must still be told apart by their key words and length, on both the packed and the byte path.
+        // Keys whose hashes agree in their low 32 bits share a home slot at any table size and must still be told
+        // apart: by the key words a slot holds (up to 16 bytes in wide slots, 8 in narrow ones) or by the entry's key
+        // words beyond, on both the packed and the byte path, before and after the switch to narrow slots.
         var rng = new Random(21);
         // pairs of equal length, so only the key words tell them apart
         var byTag = new Dictionary<ulong, byte[]>();
@@ -102,7 +109,7 @@ public class CountingTests
             if (!byTag.TryGetValue(tag, out var other)) byTag[tag] = k;
             else if (!other.AsSpan().SequenceEqual(k)) pairs.Add((other, k));
         }
-        var t = new TokenTable();
+        var t = new TokenTable { WideMaxSlots = wideMaxSlots };
         var expected = new Dictionary<string, long>();
         void Count(byte[] k, int times)
         {
@@ -122,6 +129,117 @@ public class CountingTests
         foreach (var (x, y) in pairs) { Count(x, 3); Count(y, 2); }
         Assert.Equal(expected.Count, t.Count);
         foreach (ref readonly var e in t.Entries) Assert.Equal(expected[Convert.ToHexString(t.Key(e))], e.Count);
+    }
+
+    [Theory]
+    [InlineData(1, 1 << 19)]
+    [InlineData(5, 1 << 19)]
+    [InlineData(64, 1 << 19)]
+    [InlineData(5, 1 << 12)]
+    public void SlotCountsFoldIntoEntriesBeforeTheyPassTheFoldPointAndStayExact(int foldAt, int wideMaxSlots)
+    {
+        // A slot holds a type's count in 28 bits and folds it into the entry when it reaches the fold point; the
+        // point is lowered here so folds happen every few occurrences. Counts must stay exact on every path that adds
+        // (packed, routed, bytes), through rehashes and the switch to narrow slots, and no slot may ever hold more than the fold point (past the
+        // 28 bits the count would run into the length code).
+        var t = new TokenTable { FoldAt = (uint)foldAt, WideMaxSlots = wideMaxSlots };
+        var rng = new Random(foldAt);
+        var expected = new Dictionary<string, long>();
+        var keys = new List<byte[]>();
+        for (int i = 0; i < 3_000; i++)
+        {
+            var k = new byte[1 + rng.Next(i % 3 == 0 ? 30 : 8)];
+            rng.NextBytes(k);
+            keys.Add(k);
+        }
+        var routed = new List<RoutedToken>();
+        var longKeys = new List<byte>();
+        uint largest = 0;
+        for (int step = 0; step < 60_000; step++)
+        {
+            // a few keys take most occurrences, so their slots pass the fold point many times
+            var k = keys[step % 4 == 0 ? rng.Next(keys.Count) : rng.Next(8)];
+            expected[Convert.ToHexString(k)] = expected.GetValueOrDefault(Convert.ToHexString(k)) + 1;
+            bool isShort = KeyPacking.ShortWords(k, out ulong a, out ulong b);
+            switch (step % 3)
+            {
+                case 0 when isShort: t.AddShort(a, b, k.Length, 1); break;
+                case 1:
+                    if (!isShort) { a = (ulong)longKeys.Count; longKeys.AddRange(k); }
+                    routed.Add(new RoutedToken { A = a, B = b, Hash = KeyPacking.Hash(k), First = 1, Len = k.Length });
+                    if (routed.Count == 256)
+                    {
+                        t.AddRouted(routed.ToArray(), longKeys.ToArray());
+                        routed.Clear();
+                        longKeys.Clear();
+                    }
+                    break;
+                default: t.Add(k, 1, 1); break;
+            }
+            if (step % 1000 == 0) largest = Math.Max(largest, t.LargestSlotCount());
+        }
+        t.AddRouted(routed.ToArray(), longKeys.ToArray());
+        largest = Math.Max(largest, t.LargestSlotCount());
+        Assert.True(largest <= (uint)foldAt, $"a slot held {largest} occurrences, past the fold point {foldAt}");
+        Assert.Equal(expected.Count, t.Count);
+        foreach (ref readonly var e in t.Entries) Assert.Equal(expected[Convert.ToHexString(t.Key(e))], e.Count);
+        Assert.Equal(0u, t.LargestSlotCount()); // reading the entries folded every slot
+    }
+
+    [Fact]
+    public void UnderAGrowthLimitWideSlotsTurnNarrowBeforeTheyCostTypes()
+    {
+        // Wide slots take twice the bytes of narrow ones: under a growth limit (a worker's share of a budget) they
+        // must turn narrow at the growth that would pass the limit, so the table holds as many types before it asks
+        // to be spilled as one that turned narrow at its first growth. Otherwise a budgeted count writes more runs.
+        const long Limit = 6L << 20;
+        int HeldBeforeSpill(int wideMaxSlots)
+        {
+            using var t = new TokenTable { GrowthLimit = Limit, WideMaxSlots = wideMaxSlots };
+            for (long i = 0; !t.OverLimit; i++) t.Add(BitConverter.GetBytes(i * 2654435761L), 1, 0);
+            Assert.True(t.GrowthPeakBytes > Limit);
+            return t.Count;
+        }
+        int narrowEarly = HeldBeforeSpill(1 << 12);
+        Assert.True(narrowEarly > 50_000, $"{narrowEarly} types");
+        Assert.Equal(narrowEarly, HeldBeforeSpill(1 << 19));
+    }
+
+    [Fact]
+    public void OccurrencesFromEarlierWorkUnitsLowerFirstPositionsOnTheRoutedPath()
+    {
+        // Routed counting feeds one table from several threads, so a type may be seen in unit 7 before unit 3; its
+        // first position must end as the earliest, whichever order the units arrive in, while occurrences within one
+        // unit come in increasing order. Checked against a plain minimum per key.
+        var rng = new Random(33);
+        var keys = Enumerable.Range(0, 2_000).Select(i => Encoding.UTF8.GetBytes($"{(i % 3 == 0 ? "longer-" : "")}w{i * 37 % 1999}x{i % 7}")).ToList();
+        var units = Enumerable.Range(0, 12).OrderBy(_ => rng.Next()).ToList();
+        var t = new TokenTable();
+        var first = new Dictionary<string, long>();
+        var count = new Dictionary<string, long>();
+        foreach (int unit in units)
+        {
+            var batch = new List<RoutedToken>();
+            for (int offset = 0; offset < 3_000; offset++)
+            {
+                // skewed towards few keys, so most occurrences are hits of types some other unit inserted
+                var k = keys[rng.Next(4) == 0 ? rng.Next(keys.Count) : rng.Next(50)];
+                long pos = KeyPacking.PackPosition(unit, offset);
+                string hex = Convert.ToHexString(k);
+                first[hex] = Math.Min(first.GetValueOrDefault(hex, long.MaxValue), pos);
+                count[hex] = count.GetValueOrDefault(hex) + 1;
+                KeyPacking.ShortWords(k, out ulong a, out ulong b);
+                batch.Add(new RoutedToken { A = a, B = b, Hash = KeyPacking.Hash(k), First = pos, Len = k.Length });
+            }
+            t.AddRouted(batch.ToArray(), default);
+        }
+        Assert.Equal(first.Count, t.Count);
+        foreach (ref readonly var e in t.Entries)
+        {
+            string hex = Convert.ToHexString(t.Key(e));
+            Assert.Equal(count[hex], e.Count);
+            Assert.Equal(first[hex], e.First);
+        }
     }
 
     [Fact]
