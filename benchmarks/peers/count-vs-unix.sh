@@ -42,7 +42,7 @@ for r in $(seq "$rounds"); do
   tok=$("$nat" count "$corpus" -o "$work/o.parquet" -t o200k_base --json -q --threads 2 | grep '"tokens"' | tr -dc 0-9)
   e=$(date +%s.%N)
   echo "o200k_base rankfreq count (native, chunk cache, 2 threads, vocabulary load included): $(echo "$e - $s" | bc) s, $tok tokens"
-  RANKFREQ_BENCH_INPUT="$corpus" dotnet benchmarks/RankFreq.Benchmarks/bin/Release/net10.0/linux-x64/RankFreq.Benchmarks.dll \
+  RANKFREQ_BENCH_INPUT="$(readlink -f "$corpus")" dotnet benchmarks/RankFreq.Benchmarks/bin/Release/net10.0/linux-x64/RankFreq.Benchmarks.dll \
     --filter '*O200kWholeText*' > "$work/encode-whole.log"
   echo "o200k_base EncodeToIds over the whole text: $(awk '/^WorkloadResult/ { printf "%.2f s", $5 / 1e9 }' "$work/encode-whole.log")," \
     "$(grep -o '[0-9,]* tokens' "$work/encode-whole.log" | tail -1)"
