@@ -35,7 +35,7 @@ internal static class TableReplay
         byte[] text;
         using (var f = File.OpenRead(args[0]))
         {
-            text = new byte[(int)Math.Min(f.Length, mb << 20)];
+            text = new byte[(int)Math.Min(Math.Min(f.Length, mb << 20), Array.MaxLength)];
             f.ReadExactly(text);
         }
         var sink = new Collect();

@@ -132,7 +132,8 @@ internal sealed unsafe partial class TokenTable : IDisposable
     private long _arenaBytes;
     private long _keyBytes;
     private bool _dirty;
-    private int _unitFloor; // the latest work unit of any type's first position: no earlier occurrence can lower one
+    private int _unitFloor; // at least every first position's work unit (the latest unit inserted since Clear), so an
+                            // occurrence from this unit or a later one cannot lower a first position
 
     /// <summary>An empty table.</summary>
     public TokenTable() => Init();
@@ -404,10 +405,12 @@ internal sealed unsafe partial class TokenTable : IDisposable
     /// <summary>
     /// Adds to the key whose packed words are <paramref name="a"/>, <paramref name="b"/> (keys of at most 16 bytes;
     /// ignored beyond), whose hash is <paramref name="h"/> and whose bytes are <paramref name="key"/>, read only to
-    /// store or to compare a long key.
+    /// store or to compare a long key. For a key of at most 16 bytes <paramref name="h"/> must be
+    /// <c>KeyPacking.Mix(a, b, length)</c>: growth recomputes it from the words a slot holds.
     /// </summary>
     private void Upsert(ulong a, ulong b, ulong h, ReadOnlySpan<byte> key, long count, long first, int id)
     {
+        System.Diagnostics.Debug.Assert(key.Length > 16 || h == KeyPacking.Mix(a, b, key.Length));
         int mask = _slotCount - 1;
         int len = key.Length;
         ulong slotKey = SlotKeyOf(a, h, len, _held);

@@ -30,7 +30,7 @@ internal sealed class SpectrumBuffer
 
     private int[] _hist = new int[256];
 
-    /// <summary>Adds individually drawn values (all larger than those already held), sorted and grouped.</summary>
+    /// <summary>Adds individually drawn values (none smaller than the last value held), sorted and grouped.</summary>
     /// <remarks>The values below lo + 2·count + 64 (lo the smallest; most of a power-law sample) are counted in a
     /// histogram and the few above it sorted: the same buffer content as sorting them all, in O(count) instead of
     /// O(count log count) (the sort was ~40% of a goodness-of-fit replicate's draw on a 10^9-token spectrum). The

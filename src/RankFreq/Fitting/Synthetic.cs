@@ -124,7 +124,9 @@ internal static class Synthetic
     }
 
     /// <summary>Uniform integer in [0, s), exactly: Lemire's multiply-and-reject ("Fast random integer generation in
-    /// an interval", ACM TOMACS 29(1), 2019); a draw is rejected with probability &lt; s / 2^64.</summary>
+    /// an interval", ACM TOMACS 29(1), 2019); a draw is rejected with probability &lt; s / 2^64. The batched suffix
+    /// loop of <see cref="Multinomial(Xoshiro, MultinomialPlan, long, SpectrumBuffer)"/> applies the same rule inline;
+    /// this one-at-a-time form is its reference in the tests.</summary>
     internal static long UniformBelow(Xoshiro rng, ulong s)
     {
         ulong hi = Math.BigMul(rng.NextUInt64(), s, out ulong lo);

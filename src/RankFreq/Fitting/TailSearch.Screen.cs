@@ -97,12 +97,19 @@ public sealed partial class TailSearch
     /// </remarks>
     private bool JumpDrops(int i, double giveUp)
     {
+        // 1/n_i alone too small to reach the level: most candidates stop here, before the logarithm
+        if (!(_m[_k - 1] >= _nSuffix[i] * 2 * (giveUp + ScreenMargin))) return false;
+        return JumpLower(i) >= giveUp + ScreenMargin; // halving is exact: the same test as on twice the level
+    }
+
+    /// <summary>The jump bound (m_j/n_i − 1/(e·x·L))/2 of <see cref="JumpDrops"/> for candidate i, NaN where it does not
+    /// apply (i not below the largest value). Written once, for the search and its test hook.</summary>
+    private double JumpLower(int i)
+    {
         int j = _k - 1;
-        double need = 2 * (giveUp + ScreenMargin);
-        double n = _nSuffix[i];
-        if (!(_m[j] >= n * need)) return false; // 1/n_i alone is too small: most candidates stop here
         double l = _lnV[j] - _lnV[i];
-        return l > 0 && _m[j] / n - 1 / (Math.E * _v[j] * l) >= need;
+        if (i >= j || !(l > 0)) return double.NaN;
+        return (_m[j] / (double)_nSuffix[i] - 1 / (Math.E * _v[j] * l)) / 2;
     }
 
     /// <summary>Test hook: candidates dropped by <see cref="JumpDrops"/> since this search was made.</summary>
@@ -110,13 +117,7 @@ public sealed partial class TailSearch
 
     /// <summary>Test hook: the bound of <see cref="JumpDrops"/> for candidate i (margin taken off), NaN where it does
     /// not apply; it must never exceed the KS distance at the fitted α.</summary>
-    internal double JumpBound(int i)
-    {
-        int j = _k - 1;
-        double l = _lnV[j] - _lnV[i];
-        if (i >= j || !(l > 0)) return double.NaN;
-        return (_m[j] / (double)_nSuffix[i] - 1 / (Math.E * _v[j] * l)) / 2 - ScreenMargin;
-    }
+    internal double JumpBound(int i) => JumpLower(i) - ScreenMargin;
 
     /// <summary>
     /// ln ζ at the start, the deviations to test (null when the side of α̂ cannot be trusted) and the slack to add to

@@ -92,7 +92,7 @@ public class CountingTests
     [Theory]
     [InlineData(1 << 19)]
     [InlineData(1 << 13)]
-    public void KeysWhoseSlotTagsCollideAreCountedApart(int wideMaxSlots)
+    public void KeysSharingAHomeSlotAreCountedApart(int wideMaxSlots)
     {
         // Keys whose hashes agree in their low 32 bits share a home slot at any table size and must still be told
         // apart: by the key words a slot holds (up to 16 bytes in wide slots, 8 in narrow ones) or by the entry's key
@@ -138,10 +138,10 @@ public class CountingTests
     [InlineData(5, 1 << 12)]
     public void SlotCountsFoldIntoEntriesBeforeTheyPassTheFoldPointAndStayExact(int foldAt, int wideMaxSlots)
     {
-        // A slot holds a type's count in 28 bits and folds it into the entry when it reaches the fold point; the
+        // A slot holds a type's count in 27 bits and folds it into the entry when it reaches the fold point; the
         // point is lowered here so folds happen every few occurrences. Counts must stay exact on every path that adds
-        // (packed, routed, bytes), through rehashes and the switch to narrow slots, and no slot may ever hold more than the fold point (past the
-        // 28 bits the count would run into the length code).
+        // (packed, routed, bytes), through rehashes and the switch to narrow slots, and no slot may ever hold more
+        // than the fold point (past the 27 bits the count would run into the length code).
         var t = new TokenTable { FoldAt = (uint)foldAt, WideMaxSlots = wideMaxSlots };
         var rng = new Random(foldAt);
         var expected = new Dictionary<string, long>();

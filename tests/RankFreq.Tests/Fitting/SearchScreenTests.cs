@@ -153,6 +153,48 @@ public class SearchScreenTests
     }
 
     [Fact]
+    public void JumpBoundsModelTermCoversTheLargestPointMassOverAlpha()
+    {
+        // the jump bound (TailSearch.Screen.cs, JumpDrops) takes 1/(e·x·L), L = ln(x/v_i), as the largest point mass
+        // p(x) = x^−α/ζ(α, v_i) of the model at the largest value x over every α. Checked here against that mass found
+        // by a search over α with ζ itself (HurwitzZeta): the bound may never exceed (m_x/n_i − max p)/2, and the term
+        // is tight (ζ's integral bound, within 10% where v_i·L ≥ 20), so a weaker term cannot pass. The KS distances
+        // (previous test) sit far above the bound and could not tell.
+        int tested = 0;
+        for (ulong seed = 1; seed <= 30; seed++)
+        {
+            var buf = ZipfLike(seed);
+            var s = new TailSearch(buf.Values, buf.Mult, buf.Count);
+            int j = buf.Count - 1;
+            double x = buf.Values[j];
+            long n = buf.Mult[j];
+            for (int i = j - 1; i >= Math.Max(0, j - 400); i--)
+            {
+                n += buf.Mult[i];
+                double bound = s.JumpBound(i);
+                if (double.IsNaN(bound)) continue;
+                double l = Math.Log(x / buf.Values[i]), pMax = 0;
+                for (double c = 0.05; c <= 20; c *= 1.02)
+                {
+                    double alpha = 1 + c / l;
+                    if (alpha >= TailSearch.MaxAlpha) break;
+                    pMax = Math.Max(pMax, Math.Exp(-alpha * Math.Log(x) - HurwitzZeta.LogValue(alpha, buf.Values[i])));
+                }
+                double term = 1 / (Math.E * x * l);
+                Assert.True(pMax <= term * (1 + 1e-9), $"seed {seed}, candidate {i}: mass {pMax:R} > term {term:R}");
+                // ζ(α, v) exceeds its integral bound by a share of about (α − 1)/(2v), so the term is tight only where
+                // v·L is large, and the largest mass is reached below the cap only where 1 + 1/L is
+                if (buf.Values[i] * l < 20 || 1 + 1 / l > TailSearch.MaxAlpha / 2) continue;
+                Assert.True(pMax >= 0.9 * term, $"seed {seed}, candidate {i}: mass {pMax:R} far below {term:R}");
+                Assert.True(bound <= (buf.Mult[j] / (double)n - pMax) / 2,
+                    $"seed {seed}, candidate {i}: bound {bound:R} above what the largest mass allows");
+                tested++;
+            }
+        }
+        Assert.True(tested > 1_000, $"only {tested} bounds were verified");
+    }
+
+    [Fact]
     public void ScreenBoundNeverExceedsTheDistanceAtTheFittedAlpha()
     {
         // the bound itself, over every point of the tail, for starts on both sides of α̂ (far, near, and within the
