@@ -348,9 +348,9 @@ internal sealed unsafe partial class TokenTable : IDisposable
         int shift = wide ? WideShift : NarrowShift;
         int mask = _slotCount - 1;
         // a wide slot holds every key of up to 16 bytes (b is 0 for keys of up to 8), a narrow one up to 8 bytes
-        bool held = wide || len <= 8;
-        ulong key = held ? a : h;
-        ulong code = (held ? (ulong)len : LongCode) << CodeShift;
+        int held = wide ? 16 : 8;
+        ulong key = SlotKeyOf(a, h, len, held);
+        ulong code = CodeOf(len, held);
         int i = (int)h & mask;
         while (true)
         {
@@ -428,7 +428,8 @@ internal sealed unsafe partial class TokenTable : IDisposable
             {
                 ref Entry e = ref _entries[EntryOf(s->Word)];
                 if (len <= _held ? len <= 8 || SecondWord(s) == b
-                    : e.Len == len && (len <= 16 ? e.K0 == a && e.K1 == b : Key(in e).SequenceEqual(key)))
+                    : len <= 16 ? ShortKeyIs(EntryOf(s->Word), a, b, len)
+                    : e.Len == len && Key(in e).SequenceEqual(key))
                 {
                     e.Count += count;
                     if (first < e.First) e.First = first;
